@@ -1,0 +1,13 @@
+using System.CommandLine;
+
+namespace ScaleGen.Cli.Commands;
+
+/// <summary>Every command of the tool, in the order `--help` lists them.</summary>
+internal static class CommandCatalog
+{
+    public static IEnumerable<Command> Create(ConsoleIo io)
+    {
+        yield return CheckCommand.Create(io);
+        yield return FmtCommand.Create(io);
+    }
+}

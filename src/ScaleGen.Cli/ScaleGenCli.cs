@@ -1,0 +1,66 @@
+using System.CommandLine;
+using System.Reflection;
+using ScaleGen.Cli.Commands;
+
+namespace ScaleGen.Cli;
+
+/// <summary>Exit codes of the command line contract.</summary>
+public static class ExitCodes
+{
+    public const int Ok = 0;
+    /// <summary>Input errors, a failed verification or loop budget, unformatted files, changes found.</summary>
+    public const int Failed = 1;
+    /// <summary>Usage error, missing file, unreadable or unwritable path, internal failure.</summary>
+    public const int Usage = 2;
+}
+
+/// <summary>
+/// The `scalegen` command: builds the command tree and runs it with the given writers, so
+/// tests run exactly what a user runs, in-process.
+/// </summary>
+public static class ScaleGenCli
+{
+    public static string Version { get; } =
+        typeof(ScaleGenCli).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion.Split('+')[0] ?? "0.0.0";
+
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
+    {
+        var io = new ConsoleIo(stdout, stderr);
+        var root = new RootCommand("scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.");
+        foreach (var command in CommandCatalog.Create(io)) root.Add(command);
+
+        try
+        {
+            var parsed = root.Parse(args);
+            if (parsed.Errors.Count > 0)
+            {
+                foreach (var error in parsed.Errors) stderr.WriteLine($"scalegen: {error.Message}");
+                stderr.WriteLine("Run 'scalegen --help' for usage.");
+                return ExitCodes.Usage;
+            }
+            return parsed.Invoke(new InvocationConfiguration
+            {
+                Output = stdout,
+                Error = stderr,
+                EnableDefaultExceptionHandler = false,
+            });
+        }
+        catch (UsageException usage)
+        {
+            stderr.WriteLine($"scalegen: {usage.Message}");
+            return ExitCodes.Usage;
+        }
+        catch (Exception exception)
+        {
+            // Bad input never gets here: it is reported as diagnostics. This is a bug in scalegen.
+            stderr.WriteLine($"scalegen: internal error ({exception.GetType().Name}: {exception.Message}); please report it with the input that caused it");
+            return ExitCodes.Usage;
+        }
+    }
+}
+
+/// <summary>A problem with the command line or a path: exit code 2, one line, no stack trace.</summary>
+public sealed class UsageException(string message) : Exception(message);
+
+/// <summary>Where a command writes.</summary>
+public sealed record ConsoleIo(TextWriter Out, TextWriter Error);

@@ -1,0 +1,270 @@
+using System.Collections.Immutable;
+using System.Globalization;
+using Sprache;
+using ScaleGen.Text;
+
+namespace ScaleGen.Syntax;
+
+/// <summary>
+/// Parses one file into a <see cref="CompilationUnitSyntax"/>. A statement with an error is
+/// reported and skipped; parsing goes on with the next statement or block, so one run
+/// reports every mistake in the file.
+/// </summary>
+public static class SyntaxParser
+{
+    private sealed record Context(string Name, IReadOnlyDictionary<string, Grammar.StatementRule> Rules);
+
+    private static readonly Context TopLevel = new("the top level", Grammar.TopLevel);
+    private static readonly Context CardBody = new("a card", Grammar.CardBody);
+    private static readonly Context PointBody = new("a point or profile", Grammar.PointBody);
+    private static readonly Context LoopBody = new("a loop block", Grammar.LoopBody);
+    private static readonly Context[] AllContexts = { TopLevel, CardBody, PointBody, LoopBody };
+
+    public static CompilationUnitSyntax Parse(SourceText source, DiagnosticBag diagnostics)
+    {
+        var top = new StatementScanner(source, diagnostics).Scan();
+        var reader = new Reader(source, diagnostics);
+        var statements = reader.ParseStatements(top.Statements, TopLevel);
+        if (top.Statements.Count == 0)
+            diagnostics.Report(DiagnosticCatalog.EmptyFile, source, new TextSpan(0, 0),
+                "this file declares nothing: add a card, profile or point, or leave it off the command line");
+        return new CompilationUnitSyntax(source, statements, top.TrailingComments.ToImmutableArray());
+    }
+
+    private sealed class Reader(SourceText source, DiagnosticBag diagnostics)
+    {
+        private readonly string _text = source.Text;
+
+        public ImmutableArray<StatementSyntax> ParseStatements(List<RawStatement> raws, Context context)
+        {
+            var builder = ImmutableArray.CreateBuilder<StatementSyntax>(raws.Count);
+            foreach (var raw in raws)
+            {
+                var statement = ParseStatement(raw, context);
+                if (statement is not null)
+                    builder.Add(statement with
+                    {
+                        Trivia = new Trivia(raw.LeadingComments.ToImmutableArray(), raw.TrailingComment, raw.BlankLineBefore),
+                    });
+            }
+            return builder.ToImmutable();
+        }
+
+        private StatementSyntax? ParseStatement(RawStatement raw, Context context)
+        {
+            if (raw.Broken) return null;
+            var input = new SourceInput(_text, raw.Start, raw.End);
+            var keywordResult = Grammar.Word(input);
+            if (!keywordResult.WasSuccessful)
+            {
+                ReportBadStart(raw);
+                return null;
+            }
+
+            var keyword = keywordResult.Value;
+            if (!context.Rules.TryGetValue(keyword.Text, out var rule))
+            {
+                ReportUnknownKeyword(keyword, context);
+                return null;
+            }
+
+            var result = rule.Arguments(keyword)(keywordResult.Remainder);
+            if (!result.WasSuccessful)
+            {
+                ReportFailure(rule, result.Remainder.Position, raw.End, result.Message);
+                return null;
+            }
+            if (!result.Remainder.AtEnd)
+            {
+                ReportFailure(rule, result.Remainder.Position, raw.End, null, trailing: true);
+                return null;
+            }
+
+            var statement = result.Value;
+            if (rule.HasBlock)
+            {
+                if (raw.Block is null)
+                {
+                    diagnostics.Report(DiagnosticCatalog.MissingBlock, source, keyword.Span,
+                        $"'{keyword.Text}' needs a block: write '{rule.Usage}' with '{{' on the same line");
+                    return null;
+                }
+                statement = AttachBlock(statement, raw.Block);
+            }
+            else if (raw.Block is not null)
+            {
+                diagnostics.Report(DiagnosticCatalog.UnexpectedBlock, source, new TextSpan(raw.Block.OpenBrace, 1),
+                    $"'{keyword.Text}' takes no block: remove the braces, or end the statement before '{{'");
+                return null;
+            }
+
+            CheckNames(statement);
+            return statement;
+        }
+
+        private StatementSyntax AttachBlock(StatementSyntax statement, RawBlock raw)
+        {
+            var childContext = statement switch
+            {
+                CardSyntax => CardBody,
+                LoopSyntax => LoopBody,
+                _ => PointBody,
+            };
+            var end = raw.CloseBrace >= 0 ? raw.CloseBrace + 1 : _text.Length;
+            var block = new BlockSyntax(TextSpan.FromBounds(raw.OpenBrace, end),
+                ParseStatements(raw.Statements, childContext), raw.TrailingComments.ToImmutableArray());
+            var span = TextSpan.FromBounds(statement.Span.Start, end);
+            return statement switch
+            {
+                CardSyntax card => card with { Block = block, Span = span },
+                ProfileSyntax profile => profile with { Block = block, Span = span },
+                PointSyntax point => point with { Block = block, Span = span },
+                LoopSyntax loop => loop with { Block = block, Span = span },
+                _ => statement,
+            };
+        }
+
+        private void CheckNames(StatementSyntax statement)
+        {
+            // Tags may contain '-' as instrument tags do; card and profile names may not.
+            WordSyntax? name = statement switch
+            {
+                CardSyntax card => card.Name,
+                ProfileSyntax profile => profile.Name,
+                _ => null,
+            };
+            if (name is not null && name.Text.Contains('-'))
+                diagnostics.Report(DiagnosticCatalog.InvalidName, source, name.Span,
+                    $"'{name.Text}' is not a valid name: names use letters, digits and '_' (write '{name.Text.Replace('-', '_')}')");
+        }
+
+        private void ReportBadStart(RawStatement raw)
+        {
+            var c = _text[raw.Start];
+            var span = new TextSpan(raw.Start, 1);
+            if (IsInvalidCharacter(c))
+                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span,
+                    $"character {Describe(c)} cannot appear here: remove it (is the file text in UTF-8?)");
+            else
+                diagnostics.Report(DiagnosticCatalog.UnknownKeyword, source, span,
+                    $"expected a keyword at the start of the statement, found '{Excerpt(raw.Start, raw.End)}'");
+        }
+
+        private void ReportUnknownKeyword(WordSyntax keyword, Context context)
+        {
+            var word = keyword.Text;
+            string message;
+            var home = AllContexts.FirstOrDefault(c => c != context && c.Rules.ContainsKey(word));
+            if (home is not null)
+                message = $"'{word}' belongs in {home.Name}, not in {context.Name}: move it there";
+            else if (word is "priority" or "deadband" or "delay" or "clear" or "text")
+                message = $"'{word}' is an option of an alarm: write it on the alarm's line, e.g. 'alarm H 400 {word} ...'";
+            else
+            {
+                var suggestion = Suggest(word, context.Rules.Keys);
+                message = suggestion is not null
+                    ? $"unknown keyword '{word}' in {context.Name}: did you mean '{suggestion}'?"
+                    : $"unknown keyword '{word}' in {context.Name}: expected one of {string.Join(", ", context.Rules.Keys)}";
+            }
+            diagnostics.Report(DiagnosticCatalog.UnknownKeyword, source, keyword.Span, message);
+        }
+
+        private void ReportFailure(Grammar.StatementRule rule, int position, int end, string? message, bool trailing = false)
+        {
+            var span = new TextSpan(Math.Min(position, Math.Max(end - 1, 0)), position < end ? 1 : 0);
+            if (message is not null && message.StartsWith(Grammar.NotANumberMarker, StringComparison.Ordinal))
+            {
+                diagnostics.Report(DiagnosticCatalog.NotANumber, source, new TextSpan(position, 1), message[Grammar.NotANumberMarker.Length..]);
+                return;
+            }
+            if (position < end && _text[position] == ',' && position > 0 && char.IsDigit(_text[position - 1])
+                && position + 1 < end && char.IsDigit(_text[position + 1]))
+            {
+                var number = DecimalCommaNumber(position);
+                diagnostics.Report(DiagnosticCatalog.DecimalComma, source, new TextSpan(position, 1),
+                    $"decimal comma in '{number}': numbers use a decimal point, write '{number.Replace(',', '.')}'");
+                return;
+            }
+            if (position < end && IsInvalidCharacter(_text[position]))
+            {
+                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span,
+                    $"character {Describe(_text[position])} cannot appear here: remove it");
+                return;
+            }
+            if (position >= end)
+            {
+                diagnostics.Report(DiagnosticCatalog.MalformedStatement, source, new TextSpan(end, 0),
+                    $"'{rule.Keyword}' is incomplete: write it as '{rule.Usage}'");
+                return;
+            }
+            var found = Excerpt(position, end);
+            diagnostics.Report(trailing ? DiagnosticCatalog.TrailingText : DiagnosticCatalog.MalformedStatement, source, span,
+                trailing
+                    ? $"unexpected '{found}' after the '{rule.Keyword}' statement: remove it, or write '{rule.Usage}'"
+                    : $"unexpected '{found}' in '{rule.Keyword}': write it as '{rule.Usage}'");
+        }
+
+        private string DecimalCommaNumber(int comma)
+        {
+            var start = comma;
+            while (start > 0 && (char.IsDigit(_text[start - 1]) || _text[start - 1] == '-')) start--;
+            var end = comma + 1;
+            while (end < _text.Length && char.IsDigit(_text[end])) end++;
+            return _text[start..end];
+        }
+
+        private string Excerpt(int start, int end)
+        {
+            var stop = start;
+            while (stop < end && !char.IsWhiteSpace(_text[stop])) stop++;
+            if (stop == start) stop = Math.Min(end, start + 1);
+            var word = _text[start..stop];
+            return word.Length > 30 ? word[..30] + "..." : word;
+        }
+    }
+
+    internal static bool IsInvalidCharacter(char c) =>
+        (char.IsControl(c) && c is not ('\t' or '\r' or '\n')) || c == '\uFFFD' || char.IsSurrogate(c)
+        || char.GetUnicodeCategory(c) is UnicodeCategory.Format or UnicodeCategory.PrivateUse or UnicodeCategory.OtherNotAssigned;
+
+    private static string Describe(char c) =>
+        string.Create(CultureInfo.InvariantCulture, $"U+{(int)c:X4}");
+
+    /// <summary>The nearest keyword within two edits, for "did you mean".</summary>
+    internal static string? Suggest(string word, IEnumerable<string> candidates)
+    {
+        string? best = null;
+        var bestDistance = 3;
+        foreach (var candidate in candidates.OrderBy(c => c, StringComparer.Ordinal))
+        {
+            var distance = EditDistance(word.ToLowerInvariant(), candidate.ToLowerInvariant());
+            if (distance < bestDistance)
+            {
+                best = candidate;
+                bestDistance = distance;
+            }
+        }
+        return best;
+    }
+
+    private static int EditDistance(string a, string b)
+    {
+        var previous = new int[b.Length + 1];
+        var current = new int[b.Length + 1];
+        for (var j = 0; j <= b.Length; j++) previous[j] = j;
+        for (var i = 1; i <= a.Length; i++)
+        {
+            current[0] = i;
+            for (var j = 1; j <= b.Length; j++)
+            {
+                var cost = a[i - 1] == b[j - 1] ? 0 : 1;
+                current[j] = Math.Min(Math.Min(current[j - 1] + 1, previous[j] + 1), previous[j - 1] + cost);
+                // Transposition ("rnage" for "range") counts as one edit.
+                if (i > 1 && j > 1 && a[i - 1] == b[j - 2] && a[i - 2] == b[j - 1])
+                    current[j] = Math.Min(current[j], previous[j - 1]);
+            }
+            (previous, current) = (current, previous);
+        }
+        return previous[b.Length];
+    }
+}
