@@ -25,15 +25,14 @@ public static class Formatter
             previous = statement;
         }
         if (unit.TrailingComments.Length > 0 && unit.Statements.Length > 0) output.Append('\n');
-        foreach (var comment in unit.TrailingComments) output.Append('#').Append(comment).Append('\n');
+        WriteComments(output, unit.TrailingComments, "");
         return output.ToString();
     }
 
     private static void WriteStatement(StringBuilder output, StatementSyntax statement, int depth)
     {
         var indent = string.Concat(Enumerable.Repeat(Indent, depth));
-        foreach (var comment in statement.Trivia.LeadingComments)
-            output.Append(indent).Append('#').Append(comment).Append('\n');
+        WriteComments(output, statement.Trivia.LeadingComments, indent, blankBeforeNext: true);
         output.Append(indent).Append(Line(statement));
         var block = statement switch
         {
@@ -42,7 +41,7 @@ public static class Formatter
             _ => null,
         };
         if (block is not null) output.Append(" {");
-        if (statement.Trivia.TrailingComment is { } trailing) output.Append(" #").Append(trailing);
+        if (statement.Trivia.TrailingComment is { } trailing) output.Append(' ').Append(trailing);
         output.Append('\n');
         if (block is null) return;
 
@@ -53,9 +52,29 @@ public static class Formatter
             WriteStatement(output, child, depth + 1);
             first = false;
         }
-        foreach (var comment in block.TrailingComments)
-            output.Append(indent).Append(Indent).Append('#').Append(comment).Append('\n');
+        WriteComments(output, block.TrailingComments, indent + Indent);
         output.Append(indent).Append('}').Append('\n');
+    }
+
+    private static void WriteComments(StringBuilder output, IEnumerable<string> lines, string indent, bool blankBeforeNext = false)
+    {
+        var wroteAny = false;
+        var blankPending = false;
+        foreach (var line in lines)
+        {
+            // A blank line separates comment paragraphs; none is written before the first or after the last.
+            if (line.Length == 0)
+            {
+                blankPending = wroteAny;
+                continue;
+            }
+            if (blankPending) output.Append('\n');
+            output.Append(indent).Append(line).Append('\n');
+            wroteAny = true;
+            blankPending = false;
+        }
+        // Leading comments set apart from their statement by a blank line stay apart.
+        if (blankPending && blankBeforeNext) output.Append('\n');
     }
 
     /// <summary>The statement's own words, without block or comments.</summary>

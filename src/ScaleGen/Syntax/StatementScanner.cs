@@ -66,7 +66,7 @@ internal sealed class StatementScanner
                     break;
                 case '\r' or '\n':
                     EndStatement();
-                    if (!_lineHasContent && _seenStatement) _pendingBlank = true;
+                    if (!_lineHasContent) NoteBlankLine();
                     _lineHasContent = false;
                     _lastOnLine = null;
                     i += c == '\r' && i + 1 < _text.Length && _text[i + 1] == '\n' ? 2 : 1;
@@ -138,11 +138,24 @@ internal sealed class StatementScanner
         _current = null;
     }
 
+    /// <summary>
+    /// A blank line before a statement is remembered as a flag; one among leading comments
+    /// as an empty entry, so that fmt keeps comment paragraphs apart.
+    /// </summary>
+    private void NoteBlankLine()
+    {
+        if (_pendingComments.Count > 0)
+        {
+            if (_pendingComments[^1].Length > 0) _pendingComments.Add("");
+        }
+        else if (_seenStatement) _pendingBlank = true;
+    }
+
     private int ScanComment(int i)
     {
         var end = i;
         while (end < _text.Length && _text[end] is not ('\r' or '\n')) end++;
-        var text = _text.Substring(i + 1, end - i - 1).TrimEnd();
+        var text = _text.Substring(i, end - i).TrimEnd();
         var owner = _current ?? _lastOnLine;
         if (owner is not null && owner.TrailingComment is null)
             owner.TrailingComment = text;

@@ -7,7 +7,10 @@ namespace ScaleGen.Syntax;
 // resolved or any default applied. Comments are kept as trivia so that `fmt` can write
 // them back.
 
-/// <summary>Comments and blank lines around a statement, kept for the formatter.</summary>
+/// <summary>
+/// Comments and blank lines around a statement, kept for the formatter. Comments are kept
+/// with their '#'; an empty entry among the leading comments is a blank line.
+/// </summary>
 public sealed record Trivia(ImmutableArray<string> LeadingComments, string? TrailingComment, bool BlankLineBefore)
 {
     public static readonly Trivia None = new(ImmutableArray<string>.Empty, null, false);
