@@ -17,7 +17,7 @@ public class EvaluatorTests
         Assert.Equal(50.0, reading.Percent, 12); // IEC 60381-1; common practice
         Assert.Equal(225.0, reading.Value, 9); // IEC 60381-1; common practice
         Assert.Equal(PointStatus.OK, reading.Status);
-        Assert.Equal([new AlarmFlag(AlarmKind.H, true), new AlarmFlag(AlarmKind.L, false)], reading.Alarms);
+        Assert.Equal([new AlarmFlag(AlarmKind.H, true), new AlarmFlag(AlarmKind.L, false)], reading.Alarms.ToArray());
     }
 
     [Fact]
@@ -85,7 +85,7 @@ public class EvaluatorTests
             CultureInfo.CurrentCulture = CultureInfo.GetCultureInfo("de-DE");
             var german = Evaluator.EvaluateMa(point, 17.3);
             Assert.Equal(invariant.Value, german.Value);
-            Assert.Equal(invariant.Alarms, german.Alarms);
+            Assert.Equal(invariant.Alarms.ToArray(), german.Alarms.ToArray());
             Assert.Equal("raw >= 29376", StatusBands.RawThresholds(Linear() with { Health = Health.Ne43 }).FaultHigh.ToString());
         }
         finally
