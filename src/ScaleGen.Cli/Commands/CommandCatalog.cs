@@ -9,5 +9,6 @@ internal static class CommandCatalog
     {
         yield return CheckCommand.Create(io);
         yield return FmtCommand.Create(io);
+        yield return EvalCommand.Create(io);
     }
 }

@@ -22,7 +22,16 @@ public static class JsonOutput
         return builder.Append('\n').ToString();
     }
 
-    /// <summary>A double as a JSON number; integral values are written without a fraction.</summary>
-    public static JToken Number(double value) =>
-        double.IsFinite(value) && Math.Abs(value) < 1e15 && Math.Floor(value) == value ? new JValue((long)value) : new JValue(value);
+    /// <summary>
+    /// A double as a JSON number, rounded to 10 decimals so that binary noise such as
+    /// 12.000000000000002 does not reach readers; integral values are written without a fraction.
+    /// </summary>
+    public static JToken Number(double value)
+    {
+        if (!double.IsFinite(value)) throw new ArgumentOutOfRangeException(nameof(value), "JSON has no NaN or infinity.");
+        if (Math.Abs(value) < 1e15) value = Math.Round(value, 10);
+        return Math.Abs(value) < 1e15 && Math.Floor(value) == value ? new JValue((long)value) : new JValue(value);
+    }
+
+    public static JToken Number(double? value) => value is { } v ? Number(v) : JValue.CreateNull();
 }

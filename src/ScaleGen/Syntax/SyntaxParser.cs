@@ -231,7 +231,7 @@ public static class SyntaxParser
         string.Create(CultureInfo.InvariantCulture, $"U+{(int)c:X4}");
 
     /// <summary>The nearest keyword within two edits, for "did you mean".</summary>
-    internal static string? Suggest(string word, IEnumerable<string> candidates)
+    public static string? Suggest(string word, IEnumerable<string> candidates)
     {
         string? best = null;
         var bestDistance = 3;
