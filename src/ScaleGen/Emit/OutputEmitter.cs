@@ -64,3 +64,15 @@ public static class GeneratedHeader
         "loops need their own design and verification under local codes and licensed practice.",
     };
 }
+
+/// <summary>Every output kind `build` knows, in the order `build` writes them.</summary>
+public static class OutputCatalog
+{
+    public static IReadOnlyList<IOutputEmitter> All { get; } = new IOutputEmitter[]
+    {
+        // One line per emitter: st, alarms, plcopen, sheets, loop, report.
+    };
+
+    public static IOutputEmitter? Find(string kind) =>
+        All.FirstOrDefault(e => string.Equals(e.Kind, kind, StringComparison.Ordinal));
+}
