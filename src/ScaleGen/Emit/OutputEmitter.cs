@@ -71,6 +71,8 @@ public static class OutputCatalog
     public static IReadOnlyList<IOutputEmitter> All { get; } = new IOutputEmitter[]
     {
         // One line per emitter: st, alarms, plcopen, sheets, loop, report.
+        new SheetsEmitter(),
+        new LoopEmitter(),
     };
 
     public static IOutputEmitter? Find(string kind) =>

@@ -1,0 +1,82 @@
+using System.Globalization;
+using Newtonsoft.Json.Linq;
+
+namespace ScaleGen.Emit;
+
+/// <summary>
+/// What the field outputs (loop budgets and check sheets) share: their cautions and the way
+/// they print numbers. Numbers are always invariant, with a fixed number of decimals per
+/// quantity, so a table reads the same on every machine.
+/// </summary>
+public static class FieldText
+{
+    /// <summary>Printed with every loop budget (table, file, JSON), one sentence per entry.</summary>
+    public static readonly IReadOnlyList<string> LoopCaution =
+    [
+        "This loop budget is an electrical estimate, not an intrinsic-safety entity check: loops in hazardous areas need their own assessment by competent people.",
+        "Energised work on a loop follows local codes, the site's permits and licensed practice.",
+    ];
+
+    /// <summary>Printed on every check sheet (text, CSV, HTML, JSON), one sentence per entry.</summary>
+    public static readonly IReadOnlyList<string> SheetCaution =
+    [
+        "Injecting currents into a live loop is energised work: follow local codes, the site's permits and licensed practice.",
+        "Forced or simulated signals can trip interlocks and start or stop plant: agree every test with operations and isolate what it could move.",
+        "The alarms here are process alarms, not safety functions, and this sheet is no intrinsic-safety entity check.",
+    ];
+
+    /// <summary>Caution sentences as printed lines: the first marked CAUTION, the rest indented under it.</summary>
+    public static IEnumerable<string> CautionLines(IEnumerable<string> sentences) =>
+        sentences.Select((sentence, i) => (i == 0 ? "CAUTION: " : "         ") + sentence);
+
+    public static string Ma(double ma) => Fixed(ma, 3);
+
+    public static string Volts(double volts) => Fixed(volts, 3);
+
+    public static string Ohms(double ohms) => Fixed(ohms, 1);
+
+    /// <summary>Supply-side voltages and the budget current, with two decimals as a data sheet gives them.</summary>
+    public static string SupplyVolts(double volts) => Fixed(volts, 2);
+
+    public static string Percent(double percent) => percent.ToString("0.##", CultureInfo.InvariantCulture);
+
+    /// <summary>Engineering values: up to four decimals, no trailing zeros, never "-0".</summary>
+    public static string Value(double value)
+    {
+        var rounded = Math.Round(value, 4, MidpointRounding.AwayFromZero);
+        return (rounded == 0 ? 0.0 : rounded).ToString("0.####", CultureInfo.InvariantCulture);
+    }
+
+    public static string Raw(long raw) => raw.ToString(CultureInfo.InvariantCulture);
+
+    public static string Raw(long? raw) => raw is { } r ? Raw(r) : "-";
+
+    private static string Fixed(double value, int decimals)
+    {
+        // Half away from zero, as people round by hand (the default would round to even).
+        var rounded = Math.Round(value, decimals, MidpointRounding.AwayFromZero);
+        return (rounded == 0 ? 0.0 : rounded).ToString("F" + decimals.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
+    }
+
+    /// <summary>
+    /// The "generated" object a generated JSON file starts with: the same provenance and
+    /// caution as <see cref="GeneratedHeader.Lines"/>, as fields.
+    /// </summary>
+    public static JObject GeneratedJson(EmitContext context, string what) =>
+        new()
+        {
+            ["what"] = what,
+            ["tool"] = $"scalegen {context.ToolVersion}",
+            ["note"] = "Do not edit: change the .scale source and regenerate.",
+            ["sources"] = new JArray(context.Plant.Sources.Select(s => new JObject
+            {
+                ["file"] = GeneratedHeader.FileNameOf(s),
+                ["sha256"] = GeneratedHeader.Sha256(s.Text),
+            })),
+            ["caution"] = string.Join(" ", GeneratedHeader.Caution),
+        };
+
+    /// <summary>The generated header and a caution, as the lines of a plain-text or CSV file starts with (without the comment mark).</summary>
+    public static IEnumerable<string> HeaderLines(EmitContext context, string what, IEnumerable<string> caution) =>
+        GeneratedHeader.Lines(context, what).Concat(CautionLines(caution));
+}

@@ -1,0 +1,268 @@
+using System.Globalization;
+using System.Text;
+using CsvHelper;
+using CsvHelper.Configuration;
+using Newtonsoft.Json.Linq;
+using ScaleGen.Engine;
+using ScaleGen.Model;
+
+namespace ScaleGen.Emit;
+
+/// <summary>
+/// Commissioning check sheets as JSON, CSV and a plain-text summary (the HTML page is
+/// <see cref="SheetsHtml"/>). The numbers all come from <see cref="CheckSheets"/>; the words
+/// that describe a point and its tests are here, once, for every format.
+/// </summary>
+public static class SheetsReport
+{
+    // ---- words shared by every format ---------------------------------------------------
+
+    public static string SignalText(Point point) =>
+        $"{FieldText.Percent(point.SignalLowMa)} .. {FieldText.Percent(point.SignalHighMa)} mA";
+
+    public static string RangeText(Point point) =>
+        $"{FieldText.Value(point.Lrv)} .. {FieldText.Value(point.Urv)} {point.Unit}{(point.IsReverse ? " (reverse acting)" : "")}";
+
+    public static string ExtractionText(Point point) =>
+        point.SquareRoot ? $"square root, cutoff {FieldText.Percent(point.CutoffPercent)} % of flow" : "linear";
+
+    public static string HealthText(Point point) => point.Health switch
+    {
+        { Kind: HealthKind.None } => "no fault bands",
+        { FaultLowMa: var low, FaultHighMa: var high } =>
+            $"{(point.Health.Kind == HealthKind.Ne43 ? "NAMUR NE 43" : "own bands")}: fault at "
+            + string.Join(" or ", new[]
+            {
+                low is { } l ? $"<= {FieldText.Percent(l)} mA" : null,
+                high is { } h ? $">= {FieldText.Percent(h)} mA" : null,
+            }.Where(s => s is not null)),
+    };
+
+    public static string OnFaultText(Point point) => point.OnFault.Kind switch
+    {
+        FaultActionKind.Low => $"shows {FieldText.Value(point.ValueMin)} {point.Unit} (low end)",
+        FaultActionKind.High => $"shows {FieldText.Value(point.ValueMax)} {point.Unit} (high end)",
+        FaultActionKind.Value => $"shows {FieldText.Value(point.OnFault.Value)} {point.Unit}",
+        _ => "holds the last good value",
+    };
+
+    /// <summary>Where the volts column is measured.</summary>
+    public static string VoltsWhere(Point point) =>
+        point.Card.IsVoltage
+            ? $"across the {FieldText.Percent(point.ShuntOhms ?? 0)} ohm shunt"
+            : SignalPath.TerminalOhms(point) is { } ohms ? $"across the {FieldText.Percent(ohms)} ohm card input" : "not measurable (card input 0 ohm)";
+
+    public static string ToleranceText(PointSheet sheet) =>
+        $"{FieldText.Percent(sheet.Point.TolerancePercent)} % of span = +/- {FieldText.Value(sheet.Tolerance)} {sheet.Point.Unit}";
+
+    public const string SqrtStepNote = "steps are % of the differential-pressure signal; the value is the extracted flow";
+
+    /// <summary>The value a band test must show, in the point's unit (the unit is in the column header).</summary>
+    public static string ShowsText(FaultTest test) =>
+        test.HoldsLastGood ? "holds last good value" : FieldText.Value(test.Value ?? 0);
+
+    public static string DelayText(Alarm alarm)
+    {
+        var parts = new List<string>();
+        if (alarm.OnDelaySeconds > 0) parts.Add($"on-delay {FieldText.Percent(alarm.OnDelaySeconds)} s");
+        if (alarm.OffDelaySeconds > 0) parts.Add($"off-delay {FieldText.Percent(alarm.OffDelaySeconds)} s");
+        return string.Join(", ", parts);
+    }
+
+    public static string TripHowText(TripTest trip)
+    {
+        var how = trip.CurrentRisesToTrip
+            ? "raise the current slowly until it trips, then lower it until it resets"
+            : "lower the current slowly until it trips, then raise it until it resets";
+        var delay = DelayText(trip.Alarm);
+        return delay.Length == 0 ? how : $"{how} ({delay}: hold each current that long)";
+    }
+
+    public static string SignOffText => "technician ____________  date __________  witness ____________";
+
+    // ---- JSON ---------------------------------------------------------------------------
+
+    /// <summary>
+    /// <c>{ "points": [ { "point", "unit", "steps", "trips", ... } ] }</c> as cli.md says, with
+    /// extra fields (fault tests, raw counts, volts, descriptions); <paramref name="generated"/>
+    /// (for a generated file) goes first.
+    /// </summary>
+    public static JObject Json(IReadOnlyList<PointSheet> sheets, JObject? generated = null)
+    {
+        var document = new JObject();
+        if (generated is not null) document["generated"] = generated;
+        document["caution"] = string.Join(" ", FieldText.SheetCaution);
+        document["points"] = new JArray(sheets.Select(PointJson));
+        return document;
+    }
+
+    private static JObject PointJson(PointSheet sheet)
+    {
+        var point = sheet.Point;
+        return new JObject
+        {
+            ["point"] = point.Tag,
+            ["description"] = point.Description,
+            ["card"] = point.Card.Name,
+            ["address"] = point.Address,
+            ["unit"] = point.Unit,
+            ["lrv"] = JsonOutput.Number(point.Lrv),
+            ["urv"] = JsonOutput.Number(point.Urv),
+            ["signal_low_ma"] = JsonOutput.Number(point.SignalLowMa),
+            ["signal_high_ma"] = JsonOutput.Number(point.SignalHighMa),
+            ["sqrt"] = point.SquareRoot,
+            ["tolerance_percent"] = JsonOutput.Number(point.TolerancePercent),
+            ["steps"] = new JArray(sheet.Steps.Select(s => new JObject
+            {
+                ["percent"] = JsonOutput.Number(s.Percent),
+                ["ma"] = JsonOutput.Number(s.Ma),
+                ["volts"] = JsonOutput.Number(s.Volts),
+                ["raw"] = s.Raw,
+                ["value"] = JsonOutput.Number(s.Value),
+                ["tolerance"] = JsonOutput.Number(s.Tolerance),
+            })),
+            ["fault_tests"] = new JArray(sheet.FaultTests.Select(f => new JObject
+            {
+                ["status"] = f.Status.ToString(),
+                ["ma"] = JsonOutput.Number(f.Ma),
+                ["volts"] = JsonOutput.Number(f.Volts),
+                ["raw"] = f.Raw,
+                ["value"] = JsonOutput.Number(f.Value),
+                ["holds_last_good"] = f.HoldsLastGood,
+            })),
+            ["untestable"] = new JArray(sheet.Untestable.Select(u => new JObject
+            {
+                ["status"] = u.Status.ToString(),
+                ["reason"] = u.Reason,
+            })),
+            ["trips"] = new JArray(sheet.Trips.Select(t => new JObject
+            {
+                ["alarm"] = t.Alarm.Kind.ToString(),
+                ["setpoint"] = JsonOutput.Number(t.Setpoint),
+                ["trip_ma"] = JsonOutput.Number(t.TripMa),
+                ["reset_ma"] = JsonOutput.Number(t.ResetMa),
+                ["reset_value"] = JsonOutput.Number(t.ResetValue),
+                ["trip_volts"] = JsonOutput.Number(t.TripVolts),
+                ["reset_volts"] = JsonOutput.Number(t.ResetVolts),
+                ["trip_raw"] = t.TripRaw is { } tr ? tr : JValue.CreateNull(),
+                ["reset_raw"] = t.ResetRaw is { } rr ? rr : JValue.CreateNull(),
+                ["current_rises_to_trip"] = t.CurrentRisesToTrip,
+                ["on_delay_s"] = JsonOutput.Number(t.Alarm.OnDelaySeconds),
+                ["off_delay_s"] = JsonOutput.Number(t.Alarm.OffDelaySeconds),
+            })),
+        };
+    }
+
+    // ---- CSV ----------------------------------------------------------------------------
+
+    private static readonly string[] CsvHeader =
+    [
+        "point", "description", "address", "test", "percent", "ma", "volts", "raw",
+        "expected_value", "unit", "tolerance", "expected_status", "as_found", "as_left", "notes",
+    ];
+
+    /// <summary>
+    /// One row per test (steps, band tests, alarm trip and reset) and a sign-off row per
+    /// point; as_found and as_left are left blank for the technician. The header lines come
+    /// first as '#' comments.
+    /// </summary>
+    public static string Csv(IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines)
+    {
+        var text = new StringWriter(CultureInfo.InvariantCulture) { NewLine = "\n" };
+        var configuration = new CsvConfiguration(CultureInfo.InvariantCulture) { NewLine = "\n" };
+        using (var csv = new CsvWriter(text, configuration))
+        {
+            foreach (var line in commentLines)
+            {
+                csv.WriteComment(" " + line);
+                csv.NextRecord();
+            }
+            foreach (var field in CsvHeader) csv.WriteField(field);
+            csv.NextRecord();
+            foreach (var sheet in sheets) WriteCsvPoint(csv, sheet);
+        }
+        return text.ToString();
+    }
+
+    private static void WriteCsvPoint(CsvWriter csv, PointSheet sheet)
+    {
+        var point = sheet.Point;
+        void Row(string test, string percent, string ma, string volts, string raw, string expected, string tolerance, string status, string notes)
+        {
+            foreach (var field in new[] { point.Tag, point.Description, point.Address, test, percent, ma, volts, raw, expected, point.Unit, tolerance, status, "", "", notes })
+                csv.WriteField(field);
+            csv.NextRecord();
+        }
+        static string V(double? volts) => volts is { } v ? FieldText.Volts(v) : "";
+
+        foreach (var step in sheet.Steps)
+            Row("step", FieldText.Percent(step.Percent), FieldText.Ma(step.Ma), V(step.Volts), FieldText.Raw(step.Raw),
+                FieldText.Value(step.Value), FieldText.Value(step.Tolerance), PointStatus.OK.ToString(),
+                point.SquareRoot ? SqrtStepNote : "");
+        foreach (var (status, test, untestable) in sheet.Bands)
+        {
+            if (test is not null)
+                Row("band", "", FieldText.Ma(test.Ma), V(test.Volts), FieldText.Raw(test.Raw),
+                    test.HoldsLastGood ? "" : FieldText.Value(test.Value ?? 0), "", status.ToString(),
+                    test.HoldsLastGood ? "value holds the last good value" : "");
+            else
+                Row("band", "", "", "", "", "", "", status.ToString(), "not testable: " + untestable!.Reason);
+        }
+        foreach (var trip in sheet.Trips)
+        {
+            var kind = trip.Alarm.Kind.ToString();
+            Row($"{kind} trip", "", FieldText.Ma(trip.TripMa), V(trip.TripVolts), FieldText.Raw(trip.TripRaw),
+                FieldText.Value(trip.Setpoint), "", $"{kind} active", TripHowText(trip));
+            Row($"{kind} reset", "", FieldText.Ma(trip.ResetMa), V(trip.ResetVolts), FieldText.Raw(trip.ResetRaw),
+                FieldText.Value(trip.ResetValue), "", $"{kind} clear", "");
+        }
+        Row("sign-off", "", "", "", "", "", "", "", SignOffText);
+    }
+
+    // ---- text ---------------------------------------------------------------------------
+
+    /// <summary>A compact sheet per point for the terminal, with the caution.</summary>
+    public static string Text(IReadOnlyList<PointSheet> sheets)
+    {
+        var builder = new StringBuilder();
+        foreach (var line in FieldText.CautionLines(FieldText.SheetCaution)) builder.Append(line).Append('\n');
+        foreach (var sheet in sheets)
+        {
+            var point = sheet.Point;
+            builder.Append('\n')
+                .Append(point.Tag).Append(point.Description.Length > 0 ? "  " + point.Description : "").Append('\n')
+                .Append($"  card {point.Card.Name} at {point.Address}; signal {SignalText(point)}; range {RangeText(point)}; {ExtractionText(point)}\n")
+                .Append($"  {HealthText(point)}; on fault {OnFaultText(point)}; tolerance {ToleranceText(sheet)}; volts {VoltsWhere(point)}\n");
+
+            var rows = new List<string[]> { new[] { "test", "mA", "V", "raw", $"expected {point.Unit}", "status" } };
+            foreach (var s in sheet.Steps)
+                rows.Add([$"{FieldText.Percent(s.Percent)} %", FieldText.Ma(s.Ma), s.Volts is { } v ? FieldText.Volts(v) : "-",
+                    FieldText.Raw(s.Raw), $"{FieldText.Value(s.Value)} +/- {FieldText.Value(s.Tolerance)}", "OK"]);
+            foreach (var (status, f, _) in sheet.Bands)
+                if (f is not null)
+                    rows.Add(["band", FieldText.Ma(f.Ma), f.Volts is { } v ? FieldText.Volts(v) : "-",
+                        FieldText.Raw(f.Raw), ShowsText(f), status.ToString()]);
+            foreach (var t in sheet.Trips)
+            {
+                var kind = t.Alarm.Kind.ToString();
+                rows.Add([$"{kind} trip", FieldText.Ma(t.TripMa), t.TripVolts is { } v ? FieldText.Volts(v) : "-",
+                    FieldText.Raw(t.TripRaw), FieldText.Value(t.Setpoint), $"{kind} active"]);
+                rows.Add([$"{kind} reset", FieldText.Ma(t.ResetMa), t.ResetVolts is { } r ? FieldText.Volts(r) : "-",
+                    FieldText.Raw(t.ResetRaw), FieldText.Value(t.ResetValue), $"{kind} clear"]);
+            }
+            var widths = Enumerable.Range(0, 6).Select(i => rows.Max(r => r[i].Length)).ToArray();
+            foreach (var row in rows)
+                builder.Append("  ").Append(string.Join("  ", row.Select((c, i) => i is 0 or 4 or 5 ? c.PadRight(widths[i]) : c.PadLeft(widths[i]))).TrimEnd()).Append('\n');
+            if (point.SquareRoot) builder.Append("  note: ").Append(SqrtStepNote).Append('\n');
+            foreach (var band in sheet.Untestable)
+                builder.Append($"  {band.Status} not testable: {band.Reason}\n");
+        }
+        var steps = sheets.Sum(s => s.Steps.Length);
+        var bands = sheets.Sum(s => s.FaultTests.Length);
+        var trips = sheets.Sum(s => s.Trips.Length);
+        builder.Append('\n')
+            .Append(CultureInfo.InvariantCulture, $"{sheets.Count} point{(sheets.Count == 1 ? "" : "s")}: {steps} steps, {bands} band tests, {trips} alarm trips.")
+            .Append(" Write CSV, HTML and JSON sheets with -o DIR.\n");
+        return builder.ToString();
+    }
+}
