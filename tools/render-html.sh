@@ -4,7 +4,7 @@
 #   tools/render-html.sh IN.html OUT.png          screenshot at A4 width (794 x 1123 px, 96 dpi)
 #   tools/render-html.sh --pdf IN.html OUT.png    also print to OUT.pdf on A4 (the page's own
 #                                                 @page rules) and rasterise each printed page
-#                                                 to OUT-1.png, OUT-2.png, ... (needs pdftoppm)
+#                                                 to OUT-<page>.png at 60 dpi (needs pdftoppm)
 #
 # Needs /usr/bin/chromium (Debian: apt-get update && apt-get install -y chromium poppler-utils).
 # Nothing is fetched from the network: the flags turn off every background connection.

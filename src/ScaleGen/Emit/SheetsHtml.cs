@@ -66,9 +66,9 @@ public static class SheetsHtml
         html.Append("</ul>\n</div>\n");
 
         html.Append("<ul class=\"howto\">\n")
-            .Append("<li>Inject each current with a loop calibrator in place of the transmitter; read the raw count and the value on the PLC, and write them under <em>as found</em>. After any adjustment, repeat and write <em>as left</em>.</li>\n")
+            .Append("<li>Inject each current with a loop calibrator in place of the transmitter; read the raw count and the value on the PLC, and write them under <em>Found</em> (as found). After any adjustment, repeat and write them under <em>Left</em> (as left).</li>\n")
             .Append("<li>Volts are measured across the card input (current card) or the shunt (voltage card). Raw counts are the nearest count the card delivers.</li>\n")
-            .Append("<li>Band tests must show the status named; alarm trips are tested from the normal side, resets by coming back (deadband applied). Delays must be waited out.</li>\n")
+            .Append("<li>Band tests must show the status named. Alarms: move the current slowly the way <em>Trips when mA</em> says until the alarm trips, then back until it resets (deadband applied); hold each current for the on / off delay.</li>\n")
             .Append("</ul>\n");
 
         foreach (var sheet in sheets) Section(html, sheet);
@@ -95,7 +95,7 @@ public static class SheetsHtml
         html.Append("<table class=\"steps\">\n<caption>Five-point test</caption>\n")
             .Append(Cols(9, 11, 10, 10, 14, 10, 12, 12, 12))
             .Append("<tr><th>Signal %</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Expected ").Append(unit)
-            .Append("</th><th>± ").Append(unit).Append("</th><th>As found raw</th><th>As found value</th><th>As left value</th></tr>\n");
+            .Append("</th><th>± ").Append(unit).Append("</th><th>Found raw</th><th>Found value</th><th>Left value</th></tr>\n");
         foreach (var step in sheet.Steps)
             html.Append("<tr>")
                 .Append(N(FieldText.Percent(step.Percent))).Append(N(FieldText.Ma(step.Ma))).Append(N(Volts(step.Volts)))
@@ -109,7 +109,7 @@ public static class SheetsHtml
         {
             html.Append("<table class=\"bands\">\n<caption>Status band tests</caption>\n")
                 .Append(Cols(14, 11, 10, 10, 19, 12, 12, 12))
-                .Append("<tr><th>Must show</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Value shown ").Append(unit).Append("</th><th>As found status</th><th>As found value</th><th>As left status</th></tr>\n");
+                .Append("<tr><th>Must show</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Value shown ").Append(unit).Append("</th><th>Found status</th><th>Found value</th><th>Left status</th></tr>\n");
             foreach (var (status, test, untestable) in sheet.Bands)
             {
                 html.Append("<tr><td>").Append(status.ToString()).Append("</td>");
@@ -128,17 +128,18 @@ public static class SheetsHtml
         if (sheet.Trips.Length > 0)
         {
             html.Append("<table class=\"trips\">\n<caption>Alarm trip and reset</caption>\n")
-                .Append(Cols(8, 8, 8, 8, 8, 8, 8, 11, 11, 11, 11))
+                .Append(Cols(6, 8, 8, 8, 8, 8, 8, 8, 8, 8, 7, 7, 8))
                 .Append("<tr><th>Alarm</th><th>Setpoint ").Append(unit).Append("</th><th>Trip mA</th><th>Trip raw</th><th>Reset ")
-                .Append(unit).Append("</th><th>Reset mA</th><th>Reset raw</th><th>As found trip mA</th><th>As found reset mA</th><th>As left trip mA</th><th>As left reset mA</th></tr>\n");
+                .Append(unit).Append("</th><th>Reset mA</th><th>Reset raw</th><th>Trips when mA</th><th>Delay on / off s</th>")
+                .Append("<th>Found trip mA</th><th>Found reset mA</th><th>Left trip mA</th><th>Left reset mA</th></tr>\n");
             foreach (var trip in sheet.Trips)
                 html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>")
                     .Append(N(FieldText.Value(trip.Setpoint))).Append(N(FieldText.Ma(trip.TripMa))).Append(N(FieldText.Raw(trip.TripRaw)))
                     .Append(N(FieldText.Value(trip.ResetValue))).Append(N(FieldText.Ma(trip.ResetMa))).Append(N(FieldText.Raw(trip.ResetRaw)))
+                    .Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>")
+                    .Append(N($"{FieldText.Percent(trip.Alarm.OnDelaySeconds)} / {FieldText.Percent(trip.Alarm.OffDelaySeconds)}"))
                     .Append(Blank(4)).Append("</tr>\n");
             html.Append("</table>\n");
-            var how = sheet.Trips.Select(t => $"{t.Alarm.Kind}: {SheetsReport.TripHowText(t)}.");
-            html.Append("<p class=\"note\">").Append(E(string.Join(" ", how))).Append("</p>\n");
         }
 
         html.Append("<div class=\"signoff\"><span>Technician</span><span>Date</span><span>Witness</span></div>\n");
