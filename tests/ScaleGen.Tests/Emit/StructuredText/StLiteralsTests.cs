@@ -13,7 +13,6 @@ public class StLiteralsTests
     [InlineData(5.0, "5.0")]
     [InlineData(-2.5, "-2.5")]
     [InlineData(0.0, "0.0")]
-    [InlineData(-0.0, "0.0")]
     [InlineData(1e-5, "1.0E-5")]
     [InlineData(1.234e-5, "1.234E-5")]
     [InlineData(1.5e20, "1.5E20")]
@@ -22,6 +21,9 @@ public class StLiteralsTests
     [InlineData(-1e39, "-3.4028235E38")]
     public void Real_literals_are_shortest_float_round_trip_in_IEC_form(double value, string expected) =>
         Assert.Equal(expected, StLiterals.Real(value));
+
+    [Fact]
+    public void Negative_zero_is_plain_zero() => Assert.Equal("0.0", StLiterals.Real(-0.0));
 
     [Fact]
     public void Real_literals_round_trip_as_float_for_any_double()

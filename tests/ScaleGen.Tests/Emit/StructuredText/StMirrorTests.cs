@@ -268,4 +268,29 @@ public class StMirrorTests
             if (point.FilterSeconds <= 0) Compare(point, plant.CycleSeconds, Sweep(point));
         }
     }
+
+    [Fact]
+    public void Generated_constants_reproduce_published_check_values()
+    {
+        var plant = TestInputs.CompileExample().Plant;
+        var level = plant.FindPoint("LT-101")!; // 0 .. 15 m on 0..27648 = 4..20 mA
+        var p = StPointParameters.Of(level, plant.CycleSeconds);
+        // NAMUR NE 43: failure at I <= 3.6 mA and I >= 21.0 mA. 3.6 mA is raw -691.2, 21 mA raw 29376.
+        Assert.Equal(new StRawRange(-4864, -692), p.FaultLow);
+        Assert.Equal(new StRawRange(29376, 32511), p.FaultHigh);
+        // IEC 60381-1: 12 mA is 50 % of span (raw 13824 on this card).
+        var mirror = new MirrorPoint(p, plant.CycleSeconds);
+        mirror.Call(13824);
+        Assert.Equal(7.5f, mirror.Value, 4);
+        Assert.Equal(PointStatus.OK, mirror.Status);
+
+        // ISO 5167-1: at 8, 12, 16 mA (25, 50, 75 % of DP) flow is 50, 70.711, 86.603 % of span.
+        var flow = plant.FindPoint("FIT-201")!; // 0 .. 300 m3/h, square root
+        foreach (var (raw, percent) in new[] { (6912L, 50.0), (13824L, 70.711), (20736L, 86.603) })
+        {
+            var fresh = new MirrorPoint(StPointParameters.Of(flow, plant.CycleSeconds), plant.CycleSeconds);
+            fresh.Call(raw); // the first good sample initialises the filter
+            Assert.Equal(percent, fresh.Value / 300.0 * 100.0, 2);
+        }
+    }
 }
