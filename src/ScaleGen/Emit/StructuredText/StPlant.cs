@@ -39,14 +39,14 @@ public static class StPlant
         ]));
         text.Append("PROGRAM ").Append(Program).Append('\n');
 
-        var names = ForPlant(plant);
-        foreach (var name in names)
-            AppendDeclarations(text, name, StPointParameters.Of(name.Point, plant.CycleSeconds), plant.CycleSeconds);
+        var points = ForPlant(plant).Select(n => (Names: n, Parameters: StPointParameters.Of(n.Point, plant.CycleSeconds))).ToList();
+        foreach (var (names, parameters) in points)
+            AppendDeclarations(text, names, parameters, plant.CycleSeconds);
 
         text.Append('\n').Append(Banner).Append('\n');
         text.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
-        foreach (var name in names)
-            text.Append(Call(name, StPointParameters.Of(name.Point, plant.CycleSeconds))).Append('\n');
+        foreach (var (names, parameters) in points)
+            text.Append(Call(names, parameters)).Append('\n');
         text.Append('\n').Append("END_PROGRAM").Append('\n');
         return text.ToString();
     }
