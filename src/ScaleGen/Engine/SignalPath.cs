@@ -119,8 +119,24 @@ public static class SignalPath
     public static double ExtractedFraction(Point point, double fraction)
     {
         if (!point.SquareRoot) return fraction;
-        var flow = ExtractedIgnoringCutoff(point, fraction);
-        return flow < CutoffFraction(point) ? 0.0 : flow;
+        return IsBelowCutoff(point, fraction) ? 0.0 : ExtractedIgnoringCutoff(point, fraction);
+    }
+
+    /// <summary>True when a square-root point's extracted flow at this signal fraction is below the cutoff (the value reads LRV).</summary>
+    public static bool IsBelowCutoff(Point point, double fraction) =>
+        point.SquareRoot && ExtractedIgnoringCutoff(point, fraction) < CutoffFraction(point);
+
+    /// <summary>
+    /// Exactly which raw counts inside the card limits the cutoff sends to LRV, so generated
+    /// code can decide the cutoff on integers and agree with <see cref="RawToValue"/> at the
+    /// jump. Never on a linear point or with no cutoff.
+    /// </summary>
+    public static RawCondition CutoffCondition(Point point)
+    {
+        if (!point.SquareRoot || !(CutoffFraction(point) > 0)) return RawCondition.Never;
+        // The fraction rises with the current, so the cutoff holds on the low-current end.
+        return RawSearch.Boundary(point.Card.LimitLow, point.Card.LimitHigh, holdsOnLowRaws: MaRisesWithRaw(point),
+            raw => IsBelowCutoff(point, Fraction(point, RawToMa(point, raw))));
     }
 
     /// <summary>Square-root extraction without the cutoff (for resolution estimates near a value).</summary>
