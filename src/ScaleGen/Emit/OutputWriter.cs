@@ -55,8 +55,18 @@ public static class OutputWriter
     private static readonly UTF8Encoding Utf8NoBom = new(encoderShouldEmitUTF8Identifier: false);
 
     /// <summary>Runs the emitters one after another and writes their files all or nothing.</summary>
-    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory) =>
-        Write(directory, emitters.SelectMany(emitter => emitter.Emit(context)));
+    /// <exception cref="OutputFolderException">The folder cannot be used or written, or holds one of the input files.</exception>
+    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory)
+    {
+        // The folder is replaced whole: a source kept inside it would be deleted.
+        var target = FullPath(directory) + Path.DirectorySeparatorChar;
+        foreach (var source in context.Plant.Sources)
+        {
+            if (Path.GetFullPath(source.Path).StartsWith(target, OperatingSystem.IsLinux() ? StringComparison.Ordinal : StringComparison.OrdinalIgnoreCase))
+                throw new OutputFolderException($"'{directory}' holds the input file '{source.Path}', and a build replaces the whole folder; give another output folder");
+        }
+        return Write(directory, emitters.SelectMany(emitter => emitter.Emit(context)));
+    }
 
     /// <summary>
     /// Writes the files into <paramref name="directory"/>, replacing what an earlier build

@@ -124,6 +124,17 @@ public sealed class BuildCommandTests : IDisposable
     }
 
     [Fact]
+    public void Refuses_an_output_folder_that_holds_an_input()
+    {
+        Assert.Equal(0, Build().ExitCode);
+        var input = _folder.Write("out/inside.scale", TestInputs.StandardCard + "\npoint P-1 { card AI16 at \"a\"; range 0 .. 1 m; health ne43 }\n");
+        var result = TestInputs.RunCli("build", input, "-o", _target);
+        Assert.Equal(2, result.ExitCode);
+        Assert.Contains("holds the input file", result.Error);
+        Assert.True(File.Exists(input));
+    }
+
+    [Fact]
     public void Unwritable_path_is_one_line_and_exit_2()
     {
         var file = _folder.Write("plain-file", "x\n");
