@@ -12,11 +12,13 @@ internal static class BuildCommand
         var output = new Option<string>("--output", "-o")
         {
             Description = "output folder; replaced whole on success, untouched on failure",
+            HelpName = "DIR",
             Required = true,
         };
         var only = new Option<string>("--only")
         {
             Description = $"comma-separated output kinds to write (default all): {KnownKinds()}",
+            HelpName = "KINDS",
         };
         var command = new Command("build", "Write every output (PLC code, alarm configuration, ...) into one folder, all or nothing.")
         {
