@@ -69,7 +69,6 @@ public class AlarmConfigEmitterTests
             change(copy);
             return copy.ToString();
         }
-        var firstAlarm = (JObject)document["points"]![0]!["alarms"]![0]!;
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => d["extra"] = 1)));
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => ((JObject)d["points"]![0]!).Remove("range"))));
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => d["points"]![0]!["alarms"]![0]!["kind"] = "HHH")));
@@ -78,7 +77,6 @@ public class AlarmConfigEmitterTests
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => d["points"]![0]!["alarms"]![0]!["trip_raw"] = null)));
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => d["points"]![0]!["status_handling"]!["on_fault_value"] = 1)));
         Assert.NotEmpty(SchemaFiles.Errors(SchemaFiles.Alarms, Mutated(d => d["generated"]!["sources"]![0]!["sha256"] = "abc")));
-        Assert.NotNull(firstAlarm);
     }
 
     [Fact]
