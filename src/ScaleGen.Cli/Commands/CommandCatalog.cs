@@ -9,6 +9,7 @@ internal static class CommandCatalog
     {
         yield return CheckCommand.Create(io);
         yield return FmtCommand.Create(io);
+        yield return BuildCommand.Create(io);
         yield return EvalCommand.Create(io);
         yield return LoopCommand.Create(io);
         yield return SheetsCommand.Create(io);
