@@ -58,24 +58,6 @@ public static class FieldText
         return (rounded == 0 ? 0.0 : rounded).ToString("F" + decimals.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
     }
 
-    /// <summary>
-    /// The "generated" object a generated JSON file starts with: the same provenance and
-    /// caution as <see cref="GeneratedHeader.Lines"/>, as fields.
-    /// </summary>
-    public static JObject GeneratedJson(EmitContext context, string what) =>
-        new()
-        {
-            ["what"] = what,
-            ["tool"] = $"scalegen {context.ToolVersion}",
-            ["note"] = "Do not edit: change the .scale source and regenerate.",
-            ["sources"] = new JArray(context.Plant.Sources.Select(s => new JObject
-            {
-                ["file"] = GeneratedHeader.FileNameOf(s),
-                ["sha256"] = GeneratedHeader.Sha256(s.Text),
-            })),
-            ["caution"] = string.Join(" ", GeneratedHeader.Caution),
-        };
-
     /// <summary>The generated header and a caution, as the lines of a plain-text or CSV file starts with (without the comment mark).</summary>
     public static IEnumerable<string> HeaderLines(EmitContext context, string what, IEnumerable<string> caution) =>
         GeneratedHeader.Lines(context, what).Concat(CautionLines(caution));

@@ -18,6 +18,6 @@ public sealed class LoopEmitter : IOutputEmitter
         var header = string.Concat(GeneratedHeader.Lines(context, What).Select(line => "# " + line + "\n"));
         yield return new GeneratedFile(TextFile, header + "\n" + LoopReport.Table(rows));
         yield return new GeneratedFile(JsonFile,
-            JsonOutput.Write(LoopReport.Json(rows, FieldText.GeneratedJson(context, What))));
+            JsonOutput.Write(LoopReport.Json(rows, GeneratedJson.Header(context, What))));
     }
 }

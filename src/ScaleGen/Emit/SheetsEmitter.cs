@@ -23,6 +23,6 @@ public sealed class SheetsEmitter : IOutputEmitter
             SheetsReport.Csv(sheets, FieldText.HeaderLines(context, What, FieldText.SheetCaution)));
         yield return new GeneratedFile(HtmlFile, SheetsHtml.Page(context, sheets, What));
         yield return new GeneratedFile(JsonFile,
-            JsonOutput.Write(SheetsReport.Json(sheets, FieldText.GeneratedJson(context, What))));
+            JsonOutput.Write(SheetsReport.Json(sheets, GeneratedJson.Header(context, What))));
     }
 }
