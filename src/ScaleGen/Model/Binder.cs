@@ -128,7 +128,7 @@ public sealed class Binder
         {
             if (!HasBrokenStatements(syntax.Block))
                 Report(DiagnosticCatalog.MissingCounts, source, syntax.Name.Span,
-                $"card '{name}' has no 'counts': add e.g. 'counts 0 .. 27648 at 4 .. 20 mA'");
+                    $"card '{name}' has no 'counts': add e.g. 'counts 0 .. 27648 at 4 .. 20 mA'");
             _cards[name] = null;
             return null;
         }
@@ -421,7 +421,7 @@ public sealed class Binder
         {
             if (!settings.Incomplete)
                 Report(DiagnosticCatalog.MissingCard, source, syntax.Name.Span,
-                $"point '{tag}' has no 'card': add e.g. 'card AI16 at \"R1.S2.C0\"' (or set it in its profile)");
+                    $"point '{tag}' has no 'card': add e.g. 'card AI16 at \"R1.S2.C0\"' (or set it in its profile)");
             ok = false;
         }
         else
@@ -495,7 +495,7 @@ public sealed class Binder
         {
             if (!settings.Incomplete)
                 Report(DiagnosticCatalog.MissingRange, source, syntax.Name.Span,
-                $"point '{tag}' has no 'range': add the engineering values at signal low and high, e.g. 'range 0 .. 450 m3/h'");
+                    $"point '{tag}' has no 'range': add the engineering values at signal low and high, e.g. 'range 0 .. 450 m3/h'");
             ok = false;
         }
         else

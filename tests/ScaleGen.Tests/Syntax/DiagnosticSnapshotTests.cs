@@ -13,6 +13,17 @@ namespace ScaleGen.Tests.Syntax;
 [UseReporter(typeof(QuietReporter))]
 public class DiagnosticSnapshotTests
 {
+    /// <summary>
+    /// ApprovalTests finds the approved files through the source path in the PDB; if a build
+    /// setting hid it (deterministic source paths), every snapshot would fail as "missing".
+    /// </summary>
+    [Fact]
+    public void Approved_files_are_looked_for_beside_this_test_file()
+    {
+        var expected = Path.Combine(TestInputs.RepositoryRoot, "tests", "ScaleGen.Tests", "Syntax");
+        Assert.Equal(expected, Path.TrimEndingDirectorySeparator(Path.GetFullPath(Approvals.GetDefaultNamer().SourcePath)));
+    }
+
     [Fact]
     public void Text_for_a_file_with_many_mistakes() =>
         Approvals.Verify(TextFor(("many-mistakes.scale", BadFiles.ManyMistakes)));
