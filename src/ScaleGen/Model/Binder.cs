@@ -85,7 +85,10 @@ public sealed class Binder
         // Profiles nobody uses are bound too, so their own mistakes are reported.
         foreach (var name in _profileSyntax.Keys) ResolveProfile(name);
         ReportUnused();
-        if (points.Length == 0 && units.Count > 0 && units.Any(u => u.Statements.Length > 0))
+        // Points with errors are left out of the plant, but they are points: no warning for them,
+        // nor when a top-level statement could not be read (it may be the point).
+        if (_pointSyntax.Count == 0 && units.Any(u => u.Statements.Length > 0)
+            && !units.Any(u => u.Statements.Any(s => s is ErrorStatementSyntax)))
             Report(DiagnosticCatalog.NoPoints, units[0].Source, new TextSpan(0, 0), "the plant has no points: add a 'point' declaration");
 
         return new Plant(title, cycleSeconds, cards, points, units.Select(u => u.Source).ToImmutableArray());
@@ -113,7 +116,7 @@ public sealed class Binder
 
         var type = RawType.INT;
         if (settings.TryGetValue("type", out var typeSetting) && typeSetting.Statement is RawTypeSyntax typeSyntax)
-            type = Choice(typeSyntax.Type, source, "raw type", new[] { "INT", "DINT", "UINT" }) switch
+            type = Choice(typeSyntax.Type, source, "a raw type", new[] { "INT", "DINT", "UINT" }) switch
             {
                 "DINT" => RawType.DINT,
                 "UINT" => RawType.UINT,
@@ -123,8 +126,9 @@ public sealed class Binder
 
         if (!settings.TryGetValue("counts", out var countsSetting) || countsSetting.Statement is not CountsSyntax counts)
         {
-            Report(DiagnosticCatalog.MissingCounts, source, syntax.Name.Span,
-                $"card '{name}' has no 'counts': add e.g. 'counts 0 .. 27648 at 4 .. 20 mA'");
+            if (!HasBrokenStatements(syntax.Block))
+                Report(DiagnosticCatalog.MissingCounts, source, syntax.Name.Span,
+                    $"card '{name}' has no 'counts': add e.g. 'counts 0 .. 27648 at 4 .. 20 mA'");
             _cards[name] = null;
             return null;
         }
@@ -228,6 +232,9 @@ public sealed class Binder
 
     private static bool IsWhole(double value) => Math.Floor(value) == value;
 
+    /// <summary>True when the parser already reported a statement of this block.</summary>
+    private static bool HasBrokenStatements(BlockSyntax block) => block.Statements.Any(s => s is ErrorStatementSyntax);
+
     // ---- Profiles and settings ---------------------------------------------------------
 
     /// <summary>A statement with the file it was written in (a profile may be in another file).</summary>
@@ -241,9 +248,19 @@ public sealed class Binder
         public Dictionary<string, Setting> Loop { get; } = new(StringComparer.Ordinal);
         public Setting? LoopBlock { get; set; }
 
+        /// <summary>
+        /// A statement of this point or of a profile it uses was already reported, or a profile
+        /// could not be found: a setting that seems missing may be in what could not be read,
+        /// so "missing" is not reported on top.
+        /// </summary>
+        public bool Incomplete { get; set; }
+
+        /// <summary>Like <see cref="Incomplete"/>, for the loop block.</summary>
+        public bool LoopIncomplete { get; set; }
+
         public Settings Copy()
         {
-            var copy = new Settings { LoopBlock = LoopBlock };
+            var copy = new Settings { LoopBlock = LoopBlock, Incomplete = Incomplete, LoopIncomplete = LoopIncomplete };
             foreach (var (k, v) in Single) copy.Single[k] = v;
             foreach (var (k, v) in Alarms) copy.Alarms[k] = v;
             foreach (var (k, v) in Loop) copy.Loop[k] = v;
@@ -256,7 +273,8 @@ public sealed class Binder
         var result = new Dictionary<string, Setting>(StringComparer.Ordinal);
         foreach (var statement in statements)
         {
-            if (statement is AlarmSyntax) continue;
+            // Reported by the parser already; it sets nothing.
+            if (statement is AlarmSyntax or ErrorStatementSyntax) continue;
             if (result.TryGetValue(statement.Keyword.Text, out var first))
                 Report(DiagnosticCatalog.DuplicateSetting, source, statement.Keyword.Span,
                     $"'{statement.Keyword.Text}' is already set in this block at line {first.Source.GetLineColumn(first.Statement.Span.Start).Line}: keep one");
@@ -269,11 +287,13 @@ public sealed class Binder
     private Settings Apply(Settings inherited, BlockSyntax block, SourceText source)
     {
         var settings = inherited.Copy();
+        if (HasBrokenStatements(block)) settings.Incomplete = true;
         foreach (var (keyword, setting) in CollectUnique(block.Statements, source))
         {
             if (setting.Statement is LoopSyntax loop)
             {
                 settings.LoopBlock = setting;
+                settings.LoopIncomplete |= HasBrokenStatements(loop.Block);
                 foreach (var (loopKeyword, loopSetting) in CollectUnique(loop.Block.Statements, source))
                     settings.Loop[loopKeyword] = loopSetting;
             }
@@ -309,10 +329,7 @@ public sealed class Binder
 
         var inherited = new Settings();
         if (syntax.Uses is { } uses)
-        {
-            var parent = LookupProfile(uses, source);
-            if (parent is not null) inherited = parent;
-        }
+            inherited = LookupProfile(uses, source) ?? new Settings { Incomplete = true };
         var settings = Apply(inherited, syntax.Block, source);
         _profilesInProgress.Remove(name);
         _profiles[name] = settings;
@@ -383,7 +400,7 @@ public sealed class Binder
 
             var inherited = new Settings();
             if (syntax.Uses is { } uses)
-                inherited = LookupProfile(uses, source) ?? new Settings();
+                inherited = LookupProfile(uses, source) ?? new Settings { Incomplete = true };
             var settings = Apply(inherited, syntax.Block, source);
             var point = BindPoint(syntax, source, identifier, settings, cycleSeconds);
             if (point is not null && nameOk) points.Add(point);
@@ -402,8 +419,9 @@ public sealed class Binder
         var address = "";
         if (!s.TryGetValue("card", out var cardSetting) || cardSetting.Statement is not CardReferenceSyntax cardRef)
         {
-            Report(DiagnosticCatalog.MissingCard, source, syntax.Name.Span,
-                $"point '{tag}' has no 'card': add e.g. 'card AI16 at \"R1.S2.C0\"' (or set it in its profile)");
+            if (!settings.Incomplete)
+                Report(DiagnosticCatalog.MissingCard, source, syntax.Name.Span,
+                    $"point '{tag}' has no 'card': add e.g. 'card AI16 at \"R1.S2.C0\"' (or set it in its profile)");
             ok = false;
         }
         else
@@ -475,8 +493,9 @@ public sealed class Binder
         SourceLocation? rangeAt = null;
         if (!s.TryGetValue("range", out var rangeSetting) || rangeSetting.Statement is not RangeSettingSyntax rangeSyntax)
         {
-            Report(DiagnosticCatalog.MissingRange, source, syntax.Name.Span,
-                $"point '{tag}' has no 'range': add the engineering values at signal low and high, e.g. 'range 0 .. 450 m3/h'");
+            if (!settings.Incomplete)
+                Report(DiagnosticCatalog.MissingRange, source, syntax.Name.Span,
+                    $"point '{tag}' has no 'range': add the engineering values at signal low and high, e.g. 'range 0 .. 450 m3/h'");
             ok = false;
         }
         else
@@ -550,12 +569,12 @@ public sealed class Binder
                     else health = new Health(HealthKind.Custom, low, high);
                     break;
                 default:
-                    Choice(healthSyntax.Mode, healthSetting.Source, "health", new[] { "ne43", "none", "below", "above" });
+                    Choice(healthSyntax.Mode, healthSetting.Source, "a health mode", new[] { "ne43", "none", "below", "above" });
                     ok = false;
                     break;
             }
         }
-        else if (signalLow > 0)
+        else if (signalLow > 0 && !settings.Incomplete)
             Report(DiagnosticCatalog.NoHealthOnLiveZero, source, syntax.Name.Span,
                 $"point '{tag}' has a live-zero signal but no fault bands, so a broken wire reads as a low value: add 'health ne43'");
 
@@ -563,7 +582,7 @@ public sealed class Binder
         var onFault = FaultAction.Hold;
         if (s.TryGetValue("on-fault", out var faultSetting) && faultSetting.Statement is OnFaultSyntax faultSyntax)
         {
-            switch (Choice(faultSyntax.Action, faultSetting.Source, "on-fault", new[] { "hold", "low", "high", "value" }))
+            switch (Choice(faultSyntax.Action, faultSetting.Source, "an on-fault action", new[] { "hold", "low", "high", "value" }))
             {
                 case "low": onFault = new FaultAction(FaultActionKind.Low); break;
                 case "high": onFault = new FaultAction(FaultActionKind.High); break;
@@ -597,7 +616,7 @@ public sealed class Binder
         var measure = MeasureKind.Other;
         if (s.TryGetValue("measure", out var measureSetting) && measureSetting.Statement is MeasureSyntax measureSyntax)
         {
-            var word = Choice(measureSyntax.Kind, measureSetting.Source, "measure", new[] { "flow", "level", "pressure", "temperature", "analysis", "other" });
+            var word = Choice(measureSyntax.Kind, measureSetting.Source, "a measure kind", new[] { "flow", "level", "pressure", "temperature", "analysis", "other" });
             if (word is null) ok = false;
             else measure = Enum.Parse<MeasureKind>(word, ignoreCase: true);
         }
@@ -650,7 +669,7 @@ public sealed class Binder
         var byKind = new Dictionary<AlarmKind, (Alarm Alarm, AlarmSyntax Syntax, SourceText Source)>();
         foreach (var (syntax, source) in settings.Alarms.Values.OrderBy(a => KindOrder(a.Alarm.Kind.Text)))
         {
-            var kindWord = Choice(syntax.Kind, source, "alarm", new[] { "HH", "H", "L", "LL" });
+            var kindWord = Choice(syntax.Kind, source, "an alarm kind", new[] { "HH", "H", "L", "LL" });
             if (kindWord is null)
             {
                 ok = false;
@@ -775,22 +794,9 @@ public sealed class Binder
         var device = Get("device", Dimension.Voltage, null);
         var barrier = Get("barrier", Dimension.Resistance, 0) ?? 0;
         var extra = Get("extra", Dimension.Resistance, 0) ?? 0;
-        var current = Get("current", Dimension.Current, 20) ?? 20;
-        if (supply is null || device is null)
-        {
-            var missing = supply is null && !l.ContainsKey("supply") ? "supply" : device is null && !l.ContainsKey("device") ? "device" : null;
-            if (missing is not null)
-                Report(DiagnosticCatalog.IncompleteLoop, settings.LoopBlock.Source, loopSyntax.Keyword.Span,
-                    $"the loop block has no '{missing}': add e.g. '{(missing == "supply" ? "supply 24 V" : "device 10.5 V")}'");
-            ok = false;
-            return null;
-        }
-        if (current <= 0)
-        {
-            ok = false;
-            return null;
-        }
+        var current = Get("current", Dimension.Current, 20);
 
+        // The cable is checked even when the loop is incomplete, so one run reports both.
         double? length = null;
         Conductor? conductor = null;
         if (l.TryGetValue("cable", out var cableSetting) && cableSetting.Statement is CableSyntax cable)
@@ -800,7 +806,28 @@ public sealed class Binder
             conductor = BindConductor(cable.Size, cableSetting.Source);
             if (conductor is null) ok = false;
         }
-        return new LoopSpec(supply.Value, device.Value, length, conductor, barrier, extra, l.ContainsKey("hart"), current,
+
+        if (current is null) ok = false;
+        else if (current <= 0)
+        {
+            var q = ((QuantitySettingSyntax)l["current"].Statement).Quantity;
+            Report(DiagnosticCatalog.NotPositive, l["current"].Source, q.Span,
+                "the current the budget is judged at must be larger than 0 mA, e.g. 'current 20 mA'");
+            ok = false;
+        }
+
+        if (supply is null || device is null)
+        {
+            var missing = supply is null && !l.ContainsKey("supply") ? "supply" : device is null && !l.ContainsKey("device") ? "device" : null;
+            if (missing is not null && !settings.LoopIncomplete)
+                Report(DiagnosticCatalog.IncompleteLoop, settings.LoopBlock.Source, loopSyntax.Keyword.Span,
+                    $"the loop block has no '{missing}': add e.g. '{(missing == "supply" ? "supply 24 V" : "device 10.5 V")}'");
+            ok = false;
+            return null;
+        }
+        if (current is not > 0) return null;
+
+        return new LoopSpec(supply.Value, device.Value, length, conductor, barrier, extra, l.ContainsKey("hart"), current.Value,
             new SourceLocation(settings.LoopBlock.Source, loopSyntax.Keyword.Span));
     }
 
@@ -838,7 +865,10 @@ public sealed class Binder
 
     private (double Low, double High)? ConvertRange(RangeSyntax range, Dimension expected, SourceText source, string what)
     {
-        var low = new QuantitySyntax(range.Span, range.Low, range.Unit);
+        // Checked as one quantity whose number is written as the whole range, so that a
+        // suggestion reads '4 .. 20 mA' rather than '4 mA'.
+        var whole = new NumberSyntax(range.Low.Span, range.Low.Value, $"{range.Low.Text} .. {range.High.Text}");
+        var low = new QuantitySyntax(range.Span, whole, range.Unit);
         var factor = Convert(low, expected, source, what);
         if (factor is null) return null;
         Units.TryGet(range.Unit!.Text, out _, out var f);
@@ -850,7 +880,7 @@ public sealed class Binder
         if (Array.IndexOf(choices, word.Text) >= 0) return word.Text;
         var suggestion = SyntaxParser.Suggest(word.Text, choices);
         Report(DiagnosticCatalog.UnknownChoice, source, word.Span,
-            $"'{word.Text}' is not a {what} choice" + (suggestion is not null ? $": did you mean '{suggestion}'?" : $": use one of {string.Join(", ", choices)}"));
+            $"'{word.Text}' is not {what}" + (suggestion is not null ? $": did you mean '{suggestion}'?" : $": use one of {string.Join(", ", choices)}"));
         return null;
     }
 

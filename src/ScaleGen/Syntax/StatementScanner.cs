@@ -198,7 +198,9 @@ internal sealed class StatementScanner
         var block = new RawBlock { OpenBrace = position };
         owner.Block = block;
         _current = null;
-        _lastOnLine = null;
+        // A comment after '{' on the same line belongs to the statement that opens the block,
+        // which is where fmt writes that statement's trailing comment back.
+        _lastOnLine = owner;
         _open.Push(block);
         _lineHasContent = true;
     }

@@ -41,43 +41,49 @@ public static class SyntaxParser
             foreach (var raw in raws)
             {
                 var statement = ParseStatement(raw, context);
-                if (statement is not null)
-                    builder.Add(statement with
-                    {
-                        Trivia = new Trivia(raw.LeadingComments.ToImmutableArray(), raw.TrailingComment, raw.BlankLineBefore),
-                    });
+                builder.Add(statement with
+                {
+                    Trivia = new Trivia(raw.LeadingComments.ToImmutableArray(), raw.TrailingComment, raw.BlankLineBefore),
+                });
             }
             return builder.ToImmutable();
         }
 
-        private StatementSyntax? ParseStatement(RawStatement raw, Context context)
+        /// <summary>
+        /// A statement that was reported stays in the tree as an <see cref="ErrorStatementSyntax"/>:
+        /// the binder then knows its block is incomplete and does not add "missing range" and
+        /// the like on top of the real mistake.
+        /// </summary>
+        private StatementSyntax ParseStatement(RawStatement raw, Context context)
         {
-            if (raw.Broken) return null;
+            var rawSpan = TextSpan.FromBounds(raw.Start, raw.End);
+            var noKeyword = new WordSyntax(new TextSpan(raw.Start, 0), "");
+            if (raw.Broken) return new ErrorStatementSyntax(rawSpan, noKeyword);
             var input = new SourceInput(_text, raw.Start, raw.End);
             var keywordResult = Grammar.Word(input);
             if (!keywordResult.WasSuccessful)
             {
                 ReportBadStart(raw);
-                return null;
+                return new ErrorStatementSyntax(rawSpan, noKeyword);
             }
 
             var keyword = keywordResult.Value;
             if (!context.Rules.TryGetValue(keyword.Text, out var rule))
             {
                 ReportUnknownKeyword(keyword, context);
-                return null;
+                return new ErrorStatementSyntax(rawSpan, keyword);
             }
 
             var result = rule.Arguments(keyword)(keywordResult.Remainder);
             if (!result.WasSuccessful)
             {
                 ReportFailure(rule, result.Remainder.Position, raw.End, result.Message);
-                return null;
+                return new ErrorStatementSyntax(rawSpan, keyword);
             }
             if (!result.Remainder.AtEnd)
             {
                 ReportFailure(rule, result.Remainder.Position, raw.End, null, trailing: true);
-                return null;
+                return new ErrorStatementSyntax(rawSpan, keyword);
             }
 
             var statement = result.Value;
@@ -87,7 +93,7 @@ public static class SyntaxParser
                 {
                     diagnostics.Report(DiagnosticCatalog.MissingBlock, source, keyword.Span,
                         $"'{keyword.Text}' needs a block: write '{rule.Usage}' with '{{' on the same line");
-                    return null;
+                    return new ErrorStatementSyntax(rawSpan, keyword);
                 }
                 statement = AttachBlock(statement, raw.Block);
             }
@@ -95,7 +101,7 @@ public static class SyntaxParser
             {
                 diagnostics.Report(DiagnosticCatalog.UnexpectedBlock, source, new TextSpan(raw.Block.OpenBrace, 1),
                     $"'{keyword.Text}' takes no block: remove the braces, or end the statement before '{{'");
-                return null;
+                return new ErrorStatementSyntax(rawSpan, keyword);
             }
 
             CheckNames(statement);
@@ -136,6 +142,13 @@ public static class SyntaxParser
             if (name is not null && name.Text.Contains('-'))
                 diagnostics.Report(DiagnosticCatalog.InvalidName, source, name.Span,
                     $"'{name.Text}' is not a valid name: names use letters, digits and '_' (write '{name.Text.Replace('-', '_')}')");
+
+            // The grammar reads any letter so that a name like 'FİT-101' gets this message rather
+            // than a puzzling "unexpected text"; IEC 61131-3 identifiers are ASCII only.
+            var declared = statement is DeclarationSyntax declaration ? declaration.Name : null;
+            if (declared is not null && declared.Text.FirstOrDefault(c => !char.IsAscii(c)) is var other and not '\0')
+                diagnostics.Report(DiagnosticCatalog.InvalidName, source, declared.Span,
+                    $"'{declared.Text}' contains '{other}' ({Describe(other)}): names and tags use only the letters A-Z and a-z, digits, '_' (and '-' in tags)");
         }
 
         private void ReportBadStart(RawStatement raw)
@@ -143,8 +156,7 @@ public static class SyntaxParser
             var c = _text[raw.Start];
             var span = new TextSpan(raw.Start, 1);
             if (IsInvalidCharacter(c))
-                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span,
-                    $"character {Describe(c)} cannot appear here: remove it (is the file text in UTF-8?)");
+                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span, InvalidCharacterMessage(c, atStart: true));
             else
                 diagnostics.Report(DiagnosticCatalog.UnknownKeyword, source, span,
                     $"expected a keyword at the start of the statement, found '{Excerpt(raw.Start, raw.End)}'");
@@ -187,8 +199,7 @@ public static class SyntaxParser
             }
             if (position < end && IsInvalidCharacter(_text[position]))
             {
-                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span,
-                    $"character {Describe(_text[position])} cannot appear here: remove it");
+                diagnostics.Report(DiagnosticCatalog.InvalidCharacter, source, span, InvalidCharacterMessage(_text[position], atStart: false));
                 return;
             }
             if (position >= end)
@@ -223,18 +234,32 @@ public static class SyntaxParser
         }
     }
 
+    /// <summary>
+    /// Characters no token starts with: controls, U+FFFD (bytes that were not UTF-8), lone
+    /// surrogates, invisible formats, and white space other than ' ' and tab, such as the
+    /// no-break space a copy from a document brings along.
+    /// </summary>
     internal static bool IsInvalidCharacter(char c) =>
         (char.IsControl(c) && c is not ('\t' or '\r' or '\n')) || c == '\uFFFD' || char.IsSurrogate(c)
+        || (char.IsWhiteSpace(c) && c is not (' ' or '\t' or '\r' or '\n'))
         || char.GetUnicodeCategory(c) is UnicodeCategory.Format or UnicodeCategory.PrivateUse or UnicodeCategory.OtherNotAssigned;
+
+    private static string InvalidCharacterMessage(char c, bool atStart) =>
+        char.IsWhiteSpace(c) && !char.IsControl(c)
+            ? $"character {Describe(c)} is a space but not a plain one: write ' ' or a tab instead"
+            : $"character {Describe(c)} cannot appear here: remove it" + (atStart ? " (is the file text in UTF-8?)" : "");
 
     private static string Describe(char c) =>
         string.Create(CultureInfo.InvariantCulture, $"U+{(int)c:X4}");
 
-    /// <summary>The nearest keyword within two edits, for "did you mean".</summary>
+    /// <summary>
+    /// The nearest keyword for "did you mean": within one edit for words of up to five
+    /// letters, two for longer ones. A wider net suggests nonsense ('kg' would become 'h').
+    /// </summary>
     public static string? Suggest(string word, IEnumerable<string> candidates)
     {
         string? best = null;
-        var bestDistance = 3;
+        var bestDistance = (word.Length <= 5 ? 1 : 2) + 1;
         foreach (var candidate in candidates.OrderBy(c => c, StringComparer.Ordinal))
         {
             var distance = EditDistance(word.ToLowerInvariant(), candidate.ToLowerInvariant());

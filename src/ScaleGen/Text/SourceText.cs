@@ -34,7 +34,10 @@ public sealed class SourceText
         if (offset > Text.Length) offset = Text.Length;
         var index = Array.BinarySearch(_lineStarts, offset);
         var line = index >= 0 ? index : ~index - 1;
-        return (line + 1, offset - _lineStarts[line] + 1);
+        var column = offset - _lineStarts[line] + 1;
+        // A byte-order mark is invisible in an editor: the first line's columns start after it.
+        if (line == 0 && offset > 0 && Text[0] == '\uFEFF') column--;
+        return (line + 1, column);
     }
 
     public int GetLineStart(int line) => _lineStarts[line - 1];
