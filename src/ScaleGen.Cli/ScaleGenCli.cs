@@ -1,4 +1,5 @@
 using System.CommandLine;
+using System.CommandLine.Help;
 using System.Reflection;
 using ScaleGen.Cli.Commands;
 
@@ -26,7 +27,13 @@ public static class ScaleGenCli
     public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
     {
         var io = new ConsoleIo(stdout, stderr);
-        var root = new RootCommand("scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.");
+        // A plain command named "scalegen", not RootCommand: RootCommand takes its name from the
+        // running executable, which is ScaleGen.Cli (or a test host), so help would show the wrong name.
+        var root = new Command("scalegen", "scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.")
+        {
+            new HelpOption(),
+            new VersionOption(),
+        };
         foreach (var command in CommandCatalog.Create(io)) root.Add(command);
 
         try
