@@ -32,7 +32,8 @@ public static class ScaleGenCli
         var root = new Command("scalegen", "scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.")
         {
             new HelpOption(),
-            new VersionOption(),
+            // The default action prints the entry assembly's version: a test host's in tests.
+            new VersionOption { Action = new PrintVersion(stdout) },
         };
         foreach (var command in CommandCatalog.Create(io)) root.Add(command);
 
@@ -63,6 +64,16 @@ public static class ScaleGenCli
             stderr.WriteLine($"scalegen: internal error ({exception.GetType().Name}: {exception.Message}); please report it with the input that caused it");
             return ExitCodes.Usage;
         }
+    }
+}
+
+/// <summary>`scalegen --version`: the tool's own version, nothing else.</summary>
+internal sealed class PrintVersion(TextWriter stdout) : System.CommandLine.Invocation.SynchronousCommandLineAction
+{
+    public override int Invoke(ParseResult parseResult)
+    {
+        stdout.WriteLine(ScaleGenCli.Version);
+        return ExitCodes.Ok;
     }
 }
 
