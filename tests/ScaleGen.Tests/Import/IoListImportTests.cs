@@ -344,6 +344,14 @@ public class IoListImportTests
         Assert.NotNull(result.Text);
     }
 
+    [Fact]
+    public void Every_column_is_described_in_the_import_docs()
+    {
+        var docs = File.ReadAllText(Path.Combine(TestInputs.RepositoryRoot, "docs", "import.md"));
+
+        Assert.All(IoListColumns.All, column => Assert.Contains($"`{column.Name}`", docs));
+    }
+
     [Theory]
     [InlineData(0, "A")]
     [InlineData(6, "G")]
