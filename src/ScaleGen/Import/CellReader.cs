@@ -103,9 +103,16 @@ internal sealed class CellReader(IoListRow row, List<ImportProblem> problems)
     }
 
     /// <summary>Free text for a one-line string: line breaks and runs of white space become one space.</summary>
-    public string Text(IoListColumn column) =>
-        string.Join(' ', Cell(column).Split((char[]?)null, StringSplitOptions.RemoveEmptyEntries)
-            .Select(w => new string(w.Where(c => !char.IsControl(c)).ToArray())));
+    public string Text(IoListColumn column)
+    {
+        var text = string.Join(' ', Cell(column).Split((char[]?)null, StringSplitOptions.RemoveEmptyEntries));
+        var bad = text.FirstOrDefault(SyntaxParser.IsInvalidCharacter);
+        if (bad == default) return text;
+        Report(DiagnosticCatalog.CsvUnreadable, column,
+            string.Create(CultureInfo.InvariantCulture, $"the cell holds the character U+{(int)bad:X4}, which a .scale file cannot hold: remove it") +
+            (bad == '\uFFFD' ? " (it stands for bytes that are not UTF-8: save the list as CSV UTF-8)" : ""));
+        return "";
+    }
 
     public bool? YesNo(IoListColumn column)
     {

@@ -219,6 +219,18 @@ public class IoListImportTests
         Assert.Null(result.Text);
     }
 
+    [Theory]
+    [InlineData("Sludge \uFFFD flow", "U+FFFD")]
+    [InlineData("Zero\u200Bwidth", "U+200B")]
+    [InlineData("Pump \U0001F600", "U+D83D")]
+    public void A_character_the_language_cannot_hold_is_reported_at_its_cell(string description, string named)
+    {
+        var error = Assert.Single(ImportCsv(Lines(Header, WithCell(GoodRow, "description", description))).Problems);
+
+        Assert.Equal("io-list.csv(row 2, column B 'description')", error.Location);
+        Assert.Contains(named, error.Message);
+    }
+
     [Fact]
     public void A_file_with_only_a_header_is_an_error()
     {
