@@ -165,6 +165,16 @@ public class IoListImportTests
     }
 
     [Fact]
+    public void An_empty_line_counts_as_a_row_and_crlf_files_read_the_same()
+    {
+        var csv = Header + "\r\n" + GoodRow + "\r\n\r\n" + WithCell(WithCell(GoodRow, "tag", "PT-902"), "lrv", "low") + "\r\n";
+
+        var error = Assert.Single(ImportCsv(csv).Problems);
+
+        Assert.Equal("io-list.csv(row 4, column G 'lrv')", error.Location);
+    }
+
+    [Fact]
     public void A_tag_on_two_rows_names_the_first_row()
     {
         var error = Assert.Single(ImportCsv(Lines(Header, GoodRow, GoodRow)).Problems);
