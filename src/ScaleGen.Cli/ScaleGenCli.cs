@@ -1,4 +1,5 @@
 using System.CommandLine;
+using System.CommandLine.Help;
 using System.Reflection;
 using ScaleGen.Cli.Commands;
 
@@ -26,7 +27,14 @@ public static class ScaleGenCli
     public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
     {
         var io = new ConsoleIo(stdout, stderr);
-        var root = new RootCommand("scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.");
+        // A plain command named "scalegen", not RootCommand: RootCommand takes its name from the
+        // running executable, which is ScaleGen.Cli (or a test host), so help would show the wrong name.
+        var root = new Command("scalegen", "scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.")
+        {
+            new HelpOption(),
+            // The default action prints the entry assembly's version: a test host's in tests.
+            new VersionOption { Action = new PrintVersion(stdout) },
+        };
         foreach (var command in CommandCatalog.Create(io)) root.Add(command);
 
         try
@@ -56,6 +64,16 @@ public static class ScaleGenCli
             stderr.WriteLine($"scalegen: internal error ({exception.GetType().Name}: {exception.Message}); please report it with the input that caused it");
             return ExitCodes.Usage;
         }
+    }
+}
+
+/// <summary>`scalegen --version`: the tool's own version, nothing else.</summary>
+internal sealed class PrintVersion(TextWriter stdout) : System.CommandLine.Invocation.SynchronousCommandLineAction
+{
+    public override int Invoke(ParseResult parseResult)
+    {
+        stdout.WriteLine(ScaleGenCli.Version);
+        return ExitCodes.Ok;
     }
 }
 

@@ -75,6 +75,22 @@ public static class DiagnosticCatalog
     public static readonly DiagnosticDescriptor IneffectiveSetting = W("SG2012", "setting that has no effect on this point");
     public static readonly DiagnosticDescriptor NoPoints = W("SG2013", "plant with no points");
 
+    // Import of an I/O list (SG3xxx): errors SG30xx, warnings SG31xx. They point at a CSV
+    // row and column, not at a line of a .scale file (see Import/ImportProblem.cs).
+    public static readonly DiagnosticDescriptor CsvUnreadable = E("SG3001", "CSV text that cannot be read (quotes, encoding)");
+    public static readonly DiagnosticDescriptor MissingColumn = E("SG3002", "required I/O-list column missing from the header row");
+    public static readonly DiagnosticDescriptor DuplicateColumn = E("SG3003", "two header cells for the same I/O-list column");
+    public static readonly DiagnosticDescriptor CellNotANumber = E("SG3004", "cell that should hold a number does not");
+    public static readonly DiagnosticDescriptor CellDecimalComma = E("SG3005", "number written with a decimal comma");
+    public static readonly DiagnosticDescriptor MissingCell = E("SG3006", "required cell left empty");
+    public static readonly DiagnosticDescriptor CellInvalidName = E("SG3007", "tag, card or profile name not of the allowed form");
+    public static readonly DiagnosticDescriptor CellUnknownChoice = E("SG3008", "cell not among the allowed words");
+    public static readonly DiagnosticDescriptor CellsIncomplete = E("SG3009", "cell that needs another cell of its row");
+    public static readonly DiagnosticDescriptor DuplicateTagRow = E("SG3010", "tag on two rows");
+    public static readonly DiagnosticDescriptor NoDataRows = E("SG3011", "I/O list with no data rows");
+    public static readonly DiagnosticDescriptor IgnoredColumn = W("SG3101", "header cell that is no I/O-list column; ignored");
+    public static readonly DiagnosticDescriptor UnmatchedMapping = W("SG3102", "header mapping names a header the file does not have");
+
     public static IReadOnlyList<DiagnosticDescriptor> All { get; } = typeof(DiagnosticCatalog)
         .GetFields(System.Reflection.BindingFlags.Public | System.Reflection.BindingFlags.Static)
         .Where(f => f.FieldType == typeof(DiagnosticDescriptor))
