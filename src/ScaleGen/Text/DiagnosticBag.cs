@@ -8,7 +8,8 @@ public sealed record DiagnosticDescriptor(string Code, Severity Severity, string
 
 /// <summary>
 /// Every diagnostic ScaleGen can report, in one place. Each has its own code:
-/// SG0xxx lexical and syntax, SG1xxx binding and validation errors, SG2xxx warnings.
+/// SG0xxx lexical and syntax, SG1xxx binding and validation errors, SG2xxx warnings,
+/// SG30xx I/O-list import errors and SG31xx import warnings.
 /// docs/language.md carries the same table; a test keeps the two in step.
 /// </summary>
 public static class DiagnosticCatalog
