@@ -72,6 +72,7 @@ public static class OutputCatalog
     {
         // One line per emitter: st, alarms, plcopen, sheets, loop, report.
         new StructuredText.StructuredTextEmitter(),
+        new PlcOpen.PlcOpenEmitter(),
         new SheetsEmitter(),
         new LoopEmitter(),
     };
