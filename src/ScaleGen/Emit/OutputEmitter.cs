@@ -73,6 +73,7 @@ public static class OutputCatalog
         // One line per emitter: st, alarms, plcopen, sheets, loop, report.
         new StructuredText.StructuredTextEmitter(),
         new AlarmConfigEmitter(),
+        new PlcOpen.PlcOpenEmitter(),
         new SheetsEmitter(),
         new LoopEmitter(),
     };

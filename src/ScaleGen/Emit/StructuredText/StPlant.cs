@@ -8,7 +8,8 @@ namespace ScaleGen.Emit.StructuredText;
 
 /// <summary>
 /// plant.st: one PROGRAM with, per point, a raw input, a parameter record constant and a
-/// block instance, then the calls in point order.
+/// block instance, then the calls in point order. The declarations are data
+/// (<see cref="Program"/>) so that the PLCopen export writes the same ones.
 /// </summary>
 /// <remarks>
 /// Diff locality: each point's declarations sit together in their own VAR sections and its
@@ -17,126 +18,122 @@ namespace ScaleGen.Emit.StructuredText;
 /// </remarks>
 public static class StPlant
 {
-    private const string Indent = "    ";
-    private const string Banner = "(* ======================================================================== *)";
-
     /// <summary>Longest Tag and Description the parameter record holds (STRING[40], STRING[80]).</summary>
     public const int TagLength = 40;
     public const int DescriptionLength = 80;
 
-    public static string Text(EmitContext context)
+    public static string Text(EmitContext context) =>
+        StFile.HeaderComment(GeneratedHeader.Lines(context, "ScaleGen Structured Text plant program: one point block per analog input point."))
+        + "\n" + StWriter.Pou(Program(context.Plant), StLayout.Plant);
+
+    /// <summary>The program: per point a raw input, a parameter record constant and an instance, each in its own section; the calls as the body.</summary>
+    public static StPou Program(Plant plant)
     {
-        var plant = context.Plant;
-        var text = new StringBuilder();
-        text.Append(StFile.HeaderComment(GeneratedHeader.Lines(context, "ScaleGen Structured Text plant program: one point block per analog input point.")));
-        text.Append('\n');
-        text.Append(StFile.HeaderComment(
-        [
-            "Plant: " + (plant.Title ?? "(no title)"),
-            $"Run {Program} in a cyclic task every {CycleText(plant.CycleSeconds)}: the filter constants assume that cycle.",
-            "Map each point's _Raw input to the card channel named beside it; read Value, Status,",
-            "Fault and the alarm bits from the instance named after the point. Needs library.st.",
-        ]));
-        text.Append("PROGRAM ").Append(Program).Append('\n');
-
         var points = ForPlant(plant).Select(n => (Names: n, Parameters: StPointParameters.Of(n.Point, plant.CycleSeconds))).ToList();
+        var body = new StringBuilder();
+        body.Append(StWriter.Banner).Append('\n');
+        body.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
         foreach (var (names, parameters) in points)
-            AppendDeclarations(text, names, parameters, plant.CycleSeconds);
-
-        text.Append('\n').Append(Banner).Append('\n');
-        text.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
-        foreach (var (names, parameters) in points)
-            text.Append(Call(names, parameters)).Append('\n');
-        text.Append('\n').Append("END_PROGRAM").Append('\n');
-        return text.ToString();
+            body.Append(Call(names, parameters)).Append('\n');
+        return new StPou(StPouKind.Program, StNames.Program,
+            points.SelectMany(p => Sections(p.Names, p.Parameters, plant.CycleSeconds)).ToArray(),
+            body.ToString(),
+            [
+                "Plant: " + (plant.Title ?? "(no title)"),
+                $"Run {StNames.Program} in a cyclic task every {CycleText(plant.CycleSeconds)}: the filter constants assume that cycle.",
+                "Map each point's _Raw input to the card channel named beside it; read Value, Status,",
+                "Fault and the alarm bits from the instance named after the point. Needs library.st.",
+            ]);
     }
 
-    private static void AppendDeclarations(StringBuilder text, StPointNames name, StPointParameters p, double cycle)
+    /// <summary>One point's declarations: its raw input, its parameter record constant, its instance.</summary>
+    private static IEnumerable<StVarSection> Sections(StPointNames name, StPointParameters p, double cycle)
     {
         var point = name.Point;
-        void Line(int depth, string line) => text.Append(string.Concat(Enumerable.Repeat(Indent, depth))).Append(line).Append('\n');
-        void Field(int depth, string field, string value, bool last = false) => Line(depth, $"{field} := {value}{(last ? "" : ",")}");
-        void Note(int depth, string comment) => Line(depth, StFile.Comment(comment));
+        var members = new List<StMemberValue>();
+        var notes = new List<string>();
+        void Note(string note) => notes.Add(note);
+        void Field(string member, string literal, string? after = null)
+        {
+            members.Add(new StMemberValue(member, new StSimpleValue(literal), notes.ToArray(), after));
+            notes.Clear();
+        }
         void RangeFields(string prefix, StRawRange range)
         {
-            Field(2, prefix + "Min", Integer(range.Min));
-            Field(2, prefix + "Max", Integer(range.Max));
+            Field(prefix + "Min", Integer(range.Min));
+            Field(prefix + "Max", Integer(range.Max));
         }
 
-        text.Append('\n').Append(Banner).Append('\n');
-        Note(0, $"{point.Tag}: {point.Description}");
-        Note(0, Summary(point));
+        Field("Tag", StSanitizer.StringLiteral(point.Tag, TagLength));
+        Field("Description", StSanitizer.StringLiteral(point.Description, DescriptionLength));
 
-        Line(0, "VAR_INPUT");
-        Line(1, $"{name.RawInput} : {point.Card.RawType}; {StFile.Comment($"channel {point.Address}, card {point.Card.Name}")}");
-        Line(0, "END_VAR");
-
-        Line(0, "VAR CONSTANT");
-        Line(1, $"{name.Parameters} : {PointParamsType} := (");
-        Field(2, "Tag", StSanitizer.StringLiteral(point.Tag, TagLength));
-        Field(2, "Description", StSanitizer.StringLiteral(point.Description, DescriptionLength));
-
-        Note(2, "status bands as raw ranges, first match wins; a range with Min > Max is empty");
-        Field(2, "LimitLow", Integer(p.LimitLow));
-        Field(2, "LimitHigh", Integer(p.LimitHigh));
+        Note("status bands as raw ranges, first match wins; a range with Min > Max is empty");
+        Field("LimitLow", Integer(p.LimitLow));
+        Field("LimitHigh", Integer(p.LimitHigh));
         if (!p.FaultCodesInsideLimits.IsEmpty)
-            Note(2, "fault codes inside the limits come in as CodeFault: " + string.Join(", ", p.FaultCodesInsideLimits.Select(Integer)));
-        if (point.Health.FaultLowMa is { } faultLow) Note(2, $"FAULT_LOW: I <= {Readable(faultLow)} mA");
+            Note("fault codes inside the limits come in as CodeFault: " + string.Join(", ", p.FaultCodesInsideLimits.Select(Integer)));
+        if (point.Health.FaultLowMa is { } faultLow) Note($"FAULT_LOW: I <= {Readable(faultLow)} mA");
         RangeFields("FaultLow", p.FaultLow);
-        if (point.Health.FaultHighMa is { } faultHigh) Note(2, $"FAULT_HIGH: I >= {Readable(faultHigh)} mA");
+        if (point.Health.FaultHighMa is { } faultHigh) Note($"FAULT_HIGH: I >= {Readable(faultHigh)} mA");
         RangeFields("FaultHigh", p.FaultHigh);
-        Note(2, $"UNDER: I < {Readable(point.SignalLowMa)} mA");
+        Note($"UNDER: I < {Readable(point.SignalLowMa)} mA");
         RangeFields("Under", p.Under);
-        Note(2, $"OVER: I > {Readable(point.SignalHighMa)} mA");
+        Note($"OVER: I > {Readable(point.SignalHighMa)} mA");
         RangeFields("Over", p.Over);
 
-        Note(2, point.SquareRoot
+        Note(point.SquareRoot
             ? "fraction = raw * Gain + Offset; Value = SQRT(fraction) * Span + Lrv, or Lrv in the cutoff range"
             : "Value = raw * Gain + Offset");
-        Field(2, "SquareRoot", Bool(point.SquareRoot));
-        Field(2, "Gain", Real(p.Coefficients.Gain));
-        Field(2, "Offset", Real(p.Coefficients.Offset));
+        Field("SquareRoot", Bool(point.SquareRoot));
+        Field("Gain", Real(p.Coefficients.Gain));
+        Field("Offset", Real(p.Coefficients.Offset));
         RangeFields("CutoffRaw", p.Cutoff);
-        Field(2, "Lrv", Real(point.Lrv));
-        Field(2, "Span", Real(point.Span));
+        Field("Lrv", Real(point.Lrv));
+        Field("Span", Real(point.Span));
 
-        Note(2, "on-fault " + FaultActionText(point));
-        Field(2, "HoldLastGood", Bool(p.HoldLastGood));
-        Field(2, "FaultValue", Real(p.FaultValue));
+        Note("on-fault " + FaultActionText(point));
+        Field("HoldLastGood", Bool(p.HoldLastGood));
+        Field("FaultValue", Real(p.FaultValue));
 
-        Note(2, p.FilterOn ? $"filter {Readable(point.FilterSeconds)} s at a {CycleText(cycle)} cycle" : "no filter: alarms judged on raw ranges");
-        Field(2, "FilterOn", Bool(p.FilterOn));
-        Field(2, "Alpha", Real(p.Alpha));
+        Note(p.FilterOn ? $"filter {Readable(point.FilterSeconds)} s at a {CycleText(cycle)} cycle" : "no filter: alarms judged on raw ranges");
+        Field("FilterOn", Bool(p.FilterOn));
+        Field("Alpha", Real(p.Alpha));
 
         foreach (var alarm in p.Alarms)
         {
             var field = AlarmParamsField(alarm.Kind);
-            var last = alarm.Kind == AlarmKinds[^1];
             if (alarm.Alarm is not { } trip)
             {
-                Field(2, field, "(Enabled := FALSE)", last);
+                members.Add(new StMemberValue(field, new StStructValue([new StMemberValue("Enabled", new StSimpleValue(Bool(false)))])));
                 continue;
             }
-            Note(2, AlarmSummary(point, trip));
-            if (!string.IsNullOrEmpty(trip.Alarm.Message)) Note(2, "text: " + trip.Alarm.Message);
-            Line(2, $"{field} := (");
-            Field(3, "Enabled", Bool(true));
-            Field(3, "Setpoint", Real(trip.TripValue));
-            Field(3, "ResetValue", Real(trip.ResetValue));
-            Field(3, "TripRawMin", Integer(alarm.Trip.Min));
-            Field(3, "TripRawMax", Integer(alarm.Trip.Max));
-            Field(3, "ClearRawMin", Integer(alarm.Clear.Min));
-            Field(3, "ClearRawMax", Integer(alarm.Clear.Max));
-            Field(3, "OnDelay", TimeOfScans(alarm.OnDelayScans, cycle) + DelayNote(trip.Alarm.OnDelaySeconds, alarm.OnDelayScans, cycle));
-            Field(3, "OffDelay", TimeOfScans(alarm.OffDelayScans, cycle) + DelayNote(trip.Alarm.OffDelaySeconds, alarm.OffDelayScans, cycle), last: true);
-            Line(2, last ? ")" : "),");
+            StMemberValue Simple(string member, string literal, string? after = null) => new(member, new StSimpleValue(literal), [], after);
+            StStructValue limit = new(
+            [
+                Simple("Enabled", Bool(true)),
+                Simple("Setpoint", Real(trip.TripValue)),
+                Simple("ResetValue", Real(trip.ResetValue)),
+                Simple("TripRawMin", Integer(alarm.Trip.Min)),
+                Simple("TripRawMax", Integer(alarm.Trip.Max)),
+                Simple("ClearRawMin", Integer(alarm.Clear.Min)),
+                Simple("ClearRawMax", Integer(alarm.Clear.Max)),
+                Simple("OnDelay", TimeOfScans(alarm.OnDelayScans, cycle), DelayNote(trip.Alarm.OnDelaySeconds, alarm.OnDelayScans, cycle)),
+                Simple("OffDelay", TimeOfScans(alarm.OffDelayScans, cycle), DelayNote(trip.Alarm.OffDelaySeconds, alarm.OffDelayScans, cycle)),
+            ]);
+            Note(AlarmSummary(point, trip));
+            if (!string.IsNullOrEmpty(trip.Alarm.Message)) Note("text: " + trip.Alarm.Message);
+            members.Add(new StMemberValue(field, limit, notes.ToArray()));
+            notes.Clear();
         }
-        Line(1, ");");
-        Line(0, "END_VAR");
 
-        Line(0, "VAR");
-        Line(1, $"{name.Instance} : {PointBlock};");
-        Line(0, "END_VAR");
+        yield return new StVarSection(StVarKind.Input,
+            [new StVariable(name.RawInput, new StElementaryType(point.Card.RawType.ToString()), Comment: $"channel {point.Address}, card {point.Card.Name}")])
+        {
+            Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
+        };
+        yield return new StVarSection(StVarKind.Constant,
+            [new StVariable(name.Parameters, new StDerivedType(PointParamsType), new StStructValue(members))]);
+        yield return new StVarSection(StVarKind.Local, [new StVariable(name.Instance, new StDerivedType(PointBlock))]);
     }
 
     /// <summary>The call of one point's instance; the raw input converted to DINT, fault codes inside the limits as CodeFault.</summary>
@@ -193,14 +190,14 @@ public static class StPlant
             $"({Readable(trip.ResetMa)} mA{resetRaw}); delay {Readable(alarm.OnDelaySeconds)} s, clear {Readable(alarm.OffDelaySeconds)} s; priority {alarm.Priority}";
     }
 
-    /// <summary>A comment after a TIME literal when the declared delay is not a whole number of cycles.</summary>
-    private static string DelayNote(double declaredSeconds, int scans, double cycle)
+    /// <summary>A note after a TIME literal when the declared delay is not a whole number of cycles; else null.</summary>
+    private static string? DelayNote(double declaredSeconds, int scans, double cycle)
     {
         var written = scans * cycle;
         var declared = Math.Max(declaredSeconds, 0);
         return Math.Abs(written - declared) <= 1e-9 * Math.Max(1.0, declared)
-            ? ""
-            : " " + StFile.Comment($"declared {Readable(declared, 6)} s, rounded up to {scans} whole cycles");
+            ? null
+            : $"declared {Readable(declared, 6)} s, rounded up to {scans} whole cycles";
     }
 
     private static string CycleText(double cycleSeconds) =>

@@ -1,0 +1,123 @@
+using System.Text;
+
+namespace ScaleGen.Emit.StructuredText;
+
+/// <summary>How declarations are laid out; the code is the same either way.</summary>
+/// <param name="CommentColumn">The column a comment after a declaration starts at (at least one space after it); 0: one space.</param>
+/// <param name="GroupBanner">A section with notes starts with a blank line and a banner line.</param>
+/// <param name="CommentClosesOnOwnLine">A comment before a declaration ends with <c>*)</c> on a line of its own.</param>
+public sealed record StLayout(int CommentColumn, bool GroupBanner, bool CommentClosesOnOwnLine)
+{
+    /// <summary>library.st: comments in one column, as a reader of the blocks expects.</summary>
+    public static StLayout Library { get; } = new(34, GroupBanner: false, CommentClosesOnOwnLine: false);
+
+    /// <summary>
+    /// plant.st: nothing aligned across points, so that changing one point changes only its
+    /// own lines; every point's declarations start under a banner.
+    /// </summary>
+    public static StLayout Plant { get; } = new(0, GroupBanner: true, CommentClosesOnOwnLine: true);
+}
+
+/// <summary>
+/// Turns the declaration records into Structured Text. The one place that writes
+/// declarations; library.st, plant.st and the text read back from PLCopen XML all come from here.
+/// Lines end in '\n'.
+/// </summary>
+public static class StWriter
+{
+    private const string Indent = "    ";
+
+    /// <summary>The line that sets off a group of declarations (a point's) and the program's calls.</summary>
+    public static readonly string Banner = "(* " + new string('=', 72) + " *)";
+
+    /// <summary>Types, then blocks, each with its comment, separated by blank lines.</summary>
+    public static string Library(IEnumerable<StDataType> types, IEnumerable<StPou> blocks) =>
+        string.Join("\n", types.Select(t => DataType(t, StLayout.Library)).Concat(blocks.Select(b => Pou(b, StLayout.Library))));
+
+    public static string DataType(StDataType type, StLayout layout)
+    {
+        var text = new StringBuilder(LeadingComment(type.Comment, layout));
+        text.Append("TYPE ").Append(type.Name).Append(" :\n");
+        switch (type)
+        {
+            case StEnumType enumeration:
+                text.Append(Indent).Append('(').Append(string.Join(", ", enumeration.Values)).Append(");\n");
+                break;
+            case StStructType structure:
+                text.Append("STRUCT\n");
+                foreach (var member in structure.Members) AppendVariable(text, member, layout);
+                text.Append("END_STRUCT;\n");
+                break;
+            default:
+                throw new ArgumentException($"No Structured Text form for {type.GetType().Name}.", nameof(type));
+        }
+        return text.Append("END_TYPE\n").ToString();
+    }
+
+    public static string Pou(StPou pou, StLayout layout)
+    {
+        var text = new StringBuilder(LeadingComment(pou.Comment, layout));
+        text.Append(pou.Keyword).Append(' ').Append(pou.Name).Append('\n');
+        foreach (var section in pou.Sections)
+        {
+            if (section.Notes.Count > 0)
+            {
+                text.Append('\n');
+                if (layout.GroupBanner) text.Append(Banner).Append('\n');
+                foreach (var note in section.Notes) text.Append(StFile.Comment(note)).Append('\n');
+            }
+            text.Append(section.Keyword).Append('\n');
+            foreach (var variable in section.Variables) AppendVariable(text, variable, layout);
+            text.Append("END_VAR\n");
+        }
+        return text.Append('\n').Append(pou.Body).Append('\n').Append("END_").Append(pou.Keyword).Append('\n').ToString();
+    }
+
+    /// <summary>An initial value; a structure value with members opens at <paramref name="depth"/> and closes there.</summary>
+    public static string Value(StValue value, int depth = 1) => value switch
+    {
+        StSimpleValue simple => simple.Literal,
+        StStructValue { Members: [{ Value: StSimpleValue, Notes.Count: 0, Note: null } only] } => $"({only.Member} := {Value(only.Value)})",
+        StStructValue structure => MultiLine(structure, depth),
+        _ => throw new ArgumentException($"No Structured Text form for {value.GetType().Name}.", nameof(value)),
+    };
+
+    private static string MultiLine(StStructValue structure, int depth)
+    {
+        var text = new StringBuilder("(\n");
+        var inner = Indentation(depth + 1);
+        for (var i = 0; i < structure.Members.Count; i++)
+        {
+            var member = structure.Members[i];
+            foreach (var note in member.Notes) text.Append(inner).Append(StFile.Comment(note)).Append('\n');
+            text.Append(inner).Append(member.Member).Append(" := ").Append(Value(member.Value, depth + 1));
+            if (member.Note is { } after) text.Append(' ').Append(StFile.Comment(after));
+            text.Append(i == structure.Members.Count - 1 ? "\n" : ",\n");
+        }
+        return text.Append(Indentation(depth)).Append(')').ToString();
+    }
+
+    private static void AppendVariable(StringBuilder text, StVariable variable, StLayout layout)
+    {
+        foreach (var note in variable.Notes) text.Append(Indent).Append(StFile.Comment(note)).Append('\n');
+        var line = new StringBuilder(Indent).Append(variable.Name).Append(" : ").Append(variable.Type.Text);
+        if (variable.Initial is { } initial) line.Append(" := ").Append(Value(initial));
+        line.Append(';');
+        if (variable.Comment is { } comment)
+        {
+            // Measured on the last line, for a value that spans several.
+            var lastLine = line.Length - (line.ToString().LastIndexOf('\n') + 1);
+            line.Append(' ', Math.Max(1, layout.CommentColumn - lastLine)).Append(StFile.Comment(comment));
+        }
+        text.Append(line).Append('\n');
+    }
+
+    private static string LeadingComment(IReadOnlyList<string> lines, StLayout layout)
+    {
+        if (lines.Count == 0) return "";
+        if (layout.CommentClosesOnOwnLine) return StFile.HeaderComment(lines);
+        return "(* " + string.Join("\n   ", lines.Select(StSanitizer.Comment)) + " *)\n";
+    }
+
+    private static string Indentation(int depth) => string.Concat(Enumerable.Repeat(Indent, depth));
+}
