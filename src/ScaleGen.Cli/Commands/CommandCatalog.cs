@@ -10,5 +10,6 @@ internal static class CommandCatalog
         yield return CheckCommand.Create(io);
         yield return FmtCommand.Create(io);
         yield return EvalCommand.Create(io);
+        yield return DiffCommand.Create(io);
     }
 }
