@@ -25,7 +25,7 @@ internal static class DiffCommand
         var exitCode = new Option<bool>("--exit-code") { Description = "exit 1 when there are changes, 0 when there are none" };
         var with = new Option<string[]>("--with")
         {
-            Description = ".scale files or folders that belong to both versions (e.g. the cards and profiles a compared file uses)",
+            Description = ".scale files or folders that belong to both versions (e.g. the cards and profiles a compared file uses); a file named like a compared one is left out",
             AllowMultipleArgumentsPerToken = true,
         };
         var command = new Command("diff", "Show what changed between two versions of a plant: points added and removed, and every changed field with what it does.")
@@ -55,16 +55,16 @@ internal static class DiffCommand
     public const string NoFile = "/dev/null";
 
     /// <summary>
-    /// Compiles one version: its own files plus the shared ones (a shared file that is also one
-    /// of the version's own files is taken once). Errors go to stderr; warnings stay quiet,
-    /// the diff is about changes.
+    /// Compiles one version: its own files plus the shared ones, leaving out a shared file with
+    /// the same name as one of the version's own (that is the file being compared, in the
+    /// other version or this one). Errors go to stderr; warnings stay quiet, the diff is about changes.
     /// </summary>
     private static Compilation? CompileSide(ConsoleIo io, string side, string path, IReadOnlyList<SourceText> shared)
     {
         // git passes /dev/null for the missing side of an added or deleted file: no files.
         var own = path == NoFile ? [] : Inputs.Load(new[] { path });
-        var ownPaths = own.Select(s => Path.GetFullPath(s.Path)).ToHashSet(StringComparer.Ordinal);
-        var sources = own.Concat(shared.Where(s => !ownPaths.Contains(Path.GetFullPath(s.Path)))).ToList();
+        var ownNames = own.Select(s => Path.GetFileName(s.Path)).ToHashSet(StringComparer.Ordinal);
+        var sources = own.Concat(shared.Where(s => !ownNames.Contains(Path.GetFileName(s.Path)))).ToList();
         var compilation = Compilation.Compile(sources);
         if (!compilation.HasErrors) return compilation;
         var errors = compilation.Diagnostics.Where(d => d.IsError).ToList();

@@ -71,6 +71,7 @@ public static class OutputCatalog
     public static IReadOnlyList<IOutputEmitter> All { get; } = new IOutputEmitter[]
     {
         // One line per emitter: st, alarms, plcopen, sheets, loop, report.
+        new Report.ReportEmitter(),
     };
 
     public static IOutputEmitter? Find(string kind) =>

@@ -69,10 +69,10 @@ public static class DiffFields
         new("range.unit", "engineering unit", p => DiffValue.Word(p.Unit), NoUnit),
         new("sqrt", "square-root extraction", p => DiffValue.Of(p.SquareRoot), NoUnit, DiffConsequences.ValueAtMidSignal),
         new("sqrt.cutoff_pct", "low-flow cutoff", p => p.SquareRoot ? DiffValue.Of(p.CutoffPercent) : DiffValue.None, Fixed("%"), DiffConsequences.Cutoff),
-        new("health", "fault bands", p => DiffValue.Word(HealthWords(p.Health)), NoUnit, DiffConsequences.FaultBands),
-        new("on_fault", "value on fault", p => DiffValue.Word(FaultActionWords(p.OnFault)), NoUnit, DiffConsequences.FaultValue),
+        new("health", "fault bands", p => DiffValue.Word(SettingWords.Health(p.Health)), NoUnit, DiffConsequences.FaultBands),
+        new("on_fault", "value on fault", p => DiffValue.Word(SettingWords.OnFault(p.OnFault)), NoUnit, DiffConsequences.FaultValue),
         new("filter_s", "filter time constant", p => DiffValue.Of(p.FilterSeconds), Fixed("s")),
-        new("measure", "measure kind", p => DiffValue.Word(p.Measure.ToString().ToLowerInvariant()), NoUnit),
+        new("measure", "measure kind", p => DiffValue.Word(SettingWords.Measure(p.Measure)), NoUnit),
         new("tolerance_pct", "calibration tolerance", p => DiffValue.Of(p.TolerancePercent), Fixed("%"), DiffConsequences.Tolerance),
     };
 
@@ -157,25 +157,6 @@ public static class DiffFields
 
     private static string FaultCodes(Card card) =>
         card.FaultCodes.IsDefaultOrEmpty ? "none" : string.Join(", ", card.FaultCodes.Select(c => c.ToString(CultureInfo.InvariantCulture)));
-
-    /// <summary>The health setting as the language writes it.</summary>
-    public static string HealthWords(Health health) => health.Kind switch
-    {
-        HealthKind.Ne43 => "ne43",
-        HealthKind.None => "none",
-        _ => string.Join(" ", new[]
-        {
-            health.FaultLowMa is { } low ? $"below {DisplayNumbers.Exact(low)} mA" : null,
-            health.FaultHighMa is { } high ? $"above {DisplayNumbers.Exact(high)} mA" : null,
-        }.Where(s => s is not null)),
-    };
-
-    /// <summary>The on-fault setting as the language writes it.</summary>
-    public static string FaultActionWords(FaultAction action) => action.Kind switch
-    {
-        FaultActionKind.Value => $"value {DisplayNumbers.Exact(action.Value)}",
-        _ => action.Kind.ToString().ToLowerInvariant(),
-    };
 
     private static string AlarmSettings(Alarm alarm, string unit) =>
         $"deadband {DisplayNumbers.Exact(alarm.Deadband)} {unit}, delay {DisplayNumbers.Exact(alarm.OnDelaySeconds)} s, clear {DisplayNumbers.Exact(alarm.OffDelaySeconds)} s, priority {alarm.Priority}";
