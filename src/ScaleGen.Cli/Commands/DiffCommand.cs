@@ -27,6 +27,7 @@ internal static class DiffCommand
         {
             Description = ".scale files or folders that belong to both versions (e.g. the cards and profiles a compared file uses); a file named like a compared one is left out",
             AllowMultipleArgumentsPerToken = true,
+            HelpName = "FILES",
         };
         var command = new Command("diff", "Show what changed between two versions of a plant: points added and removed, and every changed field with what it does.")
         {

@@ -133,14 +133,14 @@ public static class ReportHtml
         const double width = 360, height = 18;
         double X(double volts) => volts / chart.ScaleVolts * width;
         html.Append("<table class=\"loops\">\n<thead><tr><th>point</th><th class=\"barcell\">");
-        html.Append($"<svg class=\"axis\" viewBox=\"0 0 {C(width)} 14\" preserveAspectRatio=\"none\" role=\"img\" aria-label=\"volts\">");
+        html.Append($"<svg class=\"axis\" viewBox=\"0 0 {C(width)} 14\" role=\"img\" aria-label=\"volts\">");
         for (var v = 0.0; v <= chart.ScaleVolts + 1e-9; v += 5)
             html.Append($"<text x=\"{C(Math.Clamp(X(v), 6, width - 10))}\" y=\"11\" text-anchor=\"middle\">{N(v)}{(v + 5 > chart.ScaleVolts ? " V" : "")}</text>");
         html.Append("</svg></th><th class=\"num\">needs</th><th class=\"num\">supply</th><th class=\"num\">margin</th><th class=\"num\">loop</th><th>HART</th></tr></thead>\n<tbody>\n");
         foreach (var loop in chart.Loops)
         {
             var bar = new StringBuilder();
-            bar.Append($"<svg class=\"budget\" viewBox=\"0 0 {C(width)} {C(height)}\" preserveAspectRatio=\"none\" role=\"img\" aria-label=\"needs {N2(loop.MinSupplyVolts)} V of {N(loop.SupplyVolts)} V\">");
+            bar.Append($"<svg class=\"budget\" viewBox=\"0 0 {C(width)} {C(height)}\" role=\"img\" aria-label=\"needs {N2(loop.MinSupplyVolts)} V of {N(loop.SupplyVolts)} V\">");
             var at = 0.0;
             foreach (var need in loop.Needs)
             {
@@ -353,9 +353,9 @@ public static class ReportHtml
         .legend i.sw-lo { background: rgba(204, 122, 0, 0.22); border-top: 2px dashed var(--lo); }
         table.loops td, table.loops th { padding: 3px 8px; }
         .barcell { width: 380px; }
-        svg.axis { width: 100%; height: 14px; display: block; }
+        svg.axis { width: 100%; height: auto; display: block; }
         svg.axis text { font-size: 10px; fill: var(--muted); }
-        svg.budget { width: 100%; height: 18px; display: block; background: #f3f5f8; }
+        svg.budget { width: 100%; height: auto; display: block; background: #f3f5f8; }
         tr.failing td { background: #fbe9e8; }
         nav.toc { font-size: 12px; line-height: 1.9; margin: 6px 0 10px; }
         nav.toc a { display: inline-block; padding: 0 6px; margin: 0 2px 2px 0; border: 1px solid var(--rule); border-radius: 3px; text-decoration: none; color: var(--accent); }
@@ -396,11 +396,16 @@ public static class ReportHtml
           h2 { margin-top: 20px; }
           nav.toc { display: none; }
           a { color: inherit; text-decoration: none; }
-          .point { margin: 8px 0; }
-          tr { break-inside: avoid; page-break-inside: avoid; }
+          .point { margin: 8px 0; padding: 8px 10px; }
+          .point-body { grid-template-columns: 58% 1fr; gap: 10px; }
+          table.alarms { font-size: 8.5pt; }
+          table.alarms td small { display: block; }
+          table.alarms td:last-child { min-width: 30%; }
+          .facts th { width: 70px; }
+          tr, #priorities { break-inside: avoid; page-break-inside: avoid; }
           #points { break-before: page; page-break-before: always; }
         }
-        @media (max-width: 760px) {
+        @media screen and (max-width: 760px) {
           .point-body, .columns { grid-template-columns: 1fr; }
           .tiles { grid-template-columns: repeat(2, 1fr); }
         }
