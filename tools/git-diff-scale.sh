@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
-# A git diff driver for .scale files: `git diff` and `git log -p` show what changed point by
-# point (scalegen diff) instead of changed lines. Set it up once per clone:
+# A git diff driver for .scale files: `git diff` (and `git log -p --ext-diff`, `git show
+# --ext-diff`) show what changed point by point (scalegen diff) instead of changed lines.
+# Set it up once per clone:
 #
 #   echo '*.scale diff=scale' >> .gitattributes
 #   git config diff.scale.command "$PWD/tools/git-diff-scale.sh"

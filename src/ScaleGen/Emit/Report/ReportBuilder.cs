@@ -175,7 +175,7 @@ public static class ReportBuilder
     }
 
     /// <summary>Usual split of alarm priorities (ISA-18.2 / EEMUA 191, from memory): about 80 % low, 15 % medium, 5 % high.</summary>
-    public static readonly (string Level, string Priorities, int[] Members, double Usual)[] PriorityLevels =
+    private static readonly (string Level, string Priorities, int[] Members, double Usual)[] PriorityLevels =
     {
         ("high", "1", new[] { 1 }, 5),
         ("medium", "2", new[] { 2 }, 15),
