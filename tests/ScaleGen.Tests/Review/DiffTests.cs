@@ -301,6 +301,28 @@ public class DiffTests
             Assert.Contains($"`{name}`", doc);
     }
 
+    /// <summary>
+    /// Every property of the bound model records, and the diff field that compares it. A
+    /// property added to the model fails this test until the diff compares it (or it is
+    /// listed here as not a setting).
+    /// </summary>
+    [Theory]
+    [InlineData(typeof(ScaleGen.Model.Point), "Tag:(matched by tag); Identifier:(follows the tag); Description:desc; Card:card; Address:address; SignalLowMa:signal.low_ma; SignalHighMa:signal.high_ma; ShuntOhms:shunt_ohm; Lrv:range.lrv; Urv:range.urv; Unit:range.unit; SquareRoot:sqrt; CutoffPercent:sqrt.cutoff_pct; Health:health; OnFault:on_fault; FilterSeconds:filter_s; Measure:measure; TolerancePercent:tolerance_pct; Alarms:alarm.KIND; Loop:loop; Location:(source position); Span:(from range); IsReverse:(from range); ValueMin:(from range); ValueMax:(from range)")]
+    [InlineData(typeof(ScaleGen.Model.Alarm), "Kind:alarm.KIND; Setpoint:alarm.KIND.setpoint; Deadband:alarm.KIND.deadband; OnDelaySeconds:alarm.KIND.delay_s; OffDelaySeconds:alarm.KIND.clear_s; Priority:alarm.KIND.priority; Message:alarm.KIND.text; Location:(source position); IsHigh:(from kind); ResetValue:(from setpoint and deadband)")]
+    [InlineData(typeof(ScaleGen.Model.LoopSpec), "SupplyVolts:loop.supply_v; DeviceVolts:loop.device_v; CableLengthMetres:loop.cable_m; Conductor:loop.conductor; BarrierOhms:loop.barrier_ohm; ExtraOhms:loop.extra_ohm; Hart:loop.hart; CurrentMa:loop.current_ma; Location:(source position)")]
+    [InlineData(typeof(ScaleGen.Model.Card), "Name:card; RawLow:card.counts.raw_low; RawHigh:card.counts.raw_high; ElectricalLow:card.counts.signal_low; ElectricalHigh:card.counts.signal_high; Unit:card.counts.unit; LimitLow:card.limits.low; LimitHigh:card.limits.high; FaultCodes:card.fault_codes; RawType:card.type; InputOhms:card.input_ohm; Location:(source position); IsVoltage:(from unit)")]
+    [InlineData(typeof(ScaleGen.Model.Plant), "Title:title; CycleSeconds:cycle_s; Cards:(as each point sees its card); Points:(added, removed, changed); Sources:(not a setting)")]
+    public void Every_model_property_is_compared(Type record, string coverage)
+    {
+        var map = coverage.Split("; ").Select(e => e.Split(':', 2)).ToDictionary(e => e[0], e => e[1]);
+        var names = DiffFields.AllNames.Select(n => Regex.Replace(n, "^alarm\\.(HH|H|LL|L)(?=\\.|$)", "alarm.KIND")).ToHashSet();
+        foreach (var property in record.GetProperties().Where(p => p.Name != "EqualityContract"))
+        {
+            Assert.True(map.TryGetValue(property.Name, out var field), $"{record.Name}.{property.Name} is not compared by diff: add a field to DiffFields");
+            if (!field!.StartsWith('(')) Assert.Contains(field, names);
+        }
+    }
+
     [Fact]
     public void Field_names_are_unique_and_stable_in_form()
     {
