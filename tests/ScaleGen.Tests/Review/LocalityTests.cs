@@ -20,8 +20,11 @@ public class LocalityTests(ITestOutputHelper output)
     /// </summary>
     private const int MostChangedLines = 8;
 
-    /// <summary>All the changed lines of a file lie within this many consecutive lines: they are one point's.</summary>
-    private const int MostLinesApart = 40;
+    /// <summary>
+    /// All the changed lines of a file lie within one point's share of it (the file's lines
+    /// divided by the points, at least 10): they are that point's, not spread over the file.
+    /// </summary>
+    private static int MostLinesApart(int fileLines, int points) => Math.Max(10, fileLines / points);
 
     /// <summary>A 30-point plant with a mix of cards, kinds, square-root points, reverse action, alarms and loops.</summary>
     internal static string ThirtyPointPlant(double setpointOfPoint15 = 70)
@@ -105,8 +108,9 @@ public class LocalityTests(ITestOutputHelper output)
                 output.WriteLine($"{emitter.Kind}: {path}: {changed} changed lines ({deleted} deleted, {inserted} inserted) within {apart} lines, of {newLines.Length}");
                 Assert.True(changed <= MostChangedLines,
                     $"{emitter.Kind} output {path}: one setpoint changed {changed} lines (at most {MostChangedLines}): order and lay out the output so a point's change stays in that point's lines");
-                Assert.True(apart <= MostLinesApart,
-                    $"{emitter.Kind} output {path}: one setpoint changed lines {apart} lines apart (at most {MostLinesApart}): a point's change must stay in that point's lines");
+                var most = MostLinesApart(newLines.Length, after.Plant.Points.Length);
+                Assert.True(apart <= most,
+                    $"{emitter.Kind} output {path}: one setpoint changed lines {apart} lines apart (at most {most}, one point's share of the file): a point's change must stay in that point's lines");
                 anyChanged |= changed > 0;
             }
         }
