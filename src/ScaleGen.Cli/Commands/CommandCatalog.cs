@@ -14,5 +14,6 @@ internal static class CommandCatalog
         yield return LoopCommand.Create(io);
         yield return SheetsCommand.Create(io);
         yield return ImportCommand.Create(io);
+        yield return DiffCommand.Create(io);
     }
 }

@@ -76,6 +76,7 @@ public static class OutputCatalog
         new PlcOpen.PlcOpenEmitter(),
         new SheetsEmitter(),
         new LoopEmitter(),
+        new Report.ReportEmitter(),
     };
 
     public static IOutputEmitter? Find(string kind) =>

@@ -1,0 +1,414 @@
+using System.Globalization;
+using System.Net;
+using System.Text;
+
+namespace ScaleGen.Emit.Report;
+
+/// <summary>
+/// Lays the report data out as one self-contained HTML page: inline CSS, inline SVG charts,
+/// no scripts, no external assets. It prints on A4 without splitting a point across pages.
+/// Every chart element and table row is written on its own line, so a change to one point
+/// changes only that point's lines.
+/// </summary>
+public static class ReportHtml
+{
+    public static string Render(ReportData data, IReadOnlyList<string> headerLines)
+    {
+        var html = new StringBuilder();
+        html.Append("<!DOCTYPE html>\n<!--\n");
+        // "--" may not appear inside an HTML comment.
+        foreach (var line in headerLines) html.Append("  ").Append(line.Replace("--", "- -")).Append('\n');
+        html.Append("-->\n");
+        html.Append("<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
+        html.Append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
+        html.Append($"<title>Review report: {E(data.Title)}</title>\n");
+        html.Append("<style>\n").Append(Style).Append("</style>\n</head>\n<body>\n");
+
+        Title(html, data);
+        Summary(html, data);
+        Diagnostics(html, data);
+        Priorities(html, data);
+        Loops(html, data);
+        Points(html, data);
+        Cautions(html, data);
+
+        html.Append("</body>\n</html>\n");
+        return html.ToString();
+    }
+
+    // ---- sections ------------------------------------------------------------------------
+
+    private static void Title(StringBuilder html, ReportData data)
+    {
+        html.Append("<header class=\"masthead\">\n");
+        html.Append($"<p class=\"kicker\">Review report</p>\n<h1>{E(data.Title)}</h1>\n");
+        html.Append($"<p class=\"meta\">{data.Summary.PointCount} points &middot; task cycle {N(data.CycleSeconds * 1000)} ms &middot; scalegen {E(data.ToolVersion)}</p>\n");
+        html.Append("</header>\n");
+        html.Append("<aside class=\"caution\">").Append(E(data.Cautions[0])).Append("</aside>\n");
+    }
+
+    private static void Summary(StringBuilder html, ReportData data)
+    {
+        var s = data.Summary;
+        html.Append("<section id=\"summary\">\n<h2>Plant summary</h2>\n<div class=\"tiles\">\n");
+        Tile(html, s.PointCount.ToString(CultureInfo.InvariantCulture), "points", null);
+        Tile(html, s.AlarmCount.ToString(CultureInfo.InvariantCulture), "alarms", null);
+        Tile(html, s.LoopCount.ToString(CultureInfo.InvariantCulture), "loop budgets",
+            s.LoopsFailing == 0 ? "all pass" : $"{s.LoopsFailing} failing", s.LoopsFailing > 0);
+        Tile(html, s.Errors.ToString(CultureInfo.InvariantCulture), "errors",
+            $"{s.Warnings} warning{(s.Warnings == 1 ? "" : "s")}", s.Errors > 0 || s.Warnings > 0);
+        html.Append("</div>\n<div class=\"columns\">\n<div>\n<h3>Points by measure</h3>\n<table class=\"compact\">\n");
+        html.Append("<thead><tr><th>measure</th><th class=\"num\">points</th><th class=\"share\"></th></tr></thead>\n<tbody>\n");
+        foreach (var m in s.ByMeasure)
+            html.Append($"<tr><td>{E(m.Measure)}</td><td class=\"num\">{m.Points}</td><td class=\"share\">{Bar(100.0 * m.Points / Math.Max(1, s.PointCount), "bar-measure")}</td></tr>\n");
+        html.Append("</tbody>\n</table>\n</div>\n<div>\n<h3>Source files</h3>\n<table class=\"compact\">\n");
+        html.Append("<thead><tr><th>file</th><th>sha256</th></tr></thead>\n<tbody>\n");
+        foreach (var source in data.Sources)
+            html.Append($"<tr><td>{E(source.File)}</td><td><code class=\"hash\">{E(source.Sha256)}</code></td></tr>\n");
+        html.Append("</tbody>\n</table>\n</div>\n</div>\n");
+
+        html.Append("<h3>Cards</h3>\n<table>\n<thead><tr><th>card</th><th>counts</th><th>limits</th><th>fault codes</th><th>type</th><th class=\"num\">input</th><th class=\"num\">points</th></tr></thead>\n<tbody>\n");
+        foreach (var c in data.Cards)
+            html.Append($"<tr><td><b>{E(c.Name)}</b></td><td>{N(c.RawLow)} .. {N(c.RawHigh)} at {N(c.SignalLow)} .. {N(c.SignalHigh)} {c.SignalUnit}</td><td>{c.LimitLow} .. {c.LimitHigh}</td><td>{E(c.FaultCodes)}</td><td>{c.RawType}</td><td class=\"num\">{N(c.InputOhms)} ohm</td><td class=\"num\">{c.Points}</td></tr>\n");
+        html.Append("</tbody>\n</table>\n</section>\n");
+    }
+
+    private static void Tile(StringBuilder html, string number, string label, string? note, bool flagged = false) =>
+        html.Append($"<div class=\"tile{(flagged ? " flagged" : "")}\"><b>{E(number)}</b><span>{E(label)}</span>{(note is null ? "" : $"<small>{E(note)}</small>")}</div>\n");
+
+    private static void Diagnostics(StringBuilder html, ReportData data)
+    {
+        html.Append("<section id=\"diagnostics\">\n<h2>Diagnostics</h2>\n");
+        if (data.Diagnostics.IsEmpty)
+        {
+            html.Append("<p class=\"ok-note\">No errors and no warnings.</p>\n</section>\n");
+            return;
+        }
+        html.Append("<table>\n<thead><tr><th></th><th>where</th><th>code</th><th>message</th></tr></thead>\n<tbody>\n");
+        foreach (var d in data.Diagnostics)
+            html.Append($"<tr><td><span class=\"badge {d.Severity}\">{d.Severity}</span></td><td class=\"where\">{E(d.File)}({d.Line},{d.Column})</td><td>{E(d.Code)}</td><td>{E(d.Message)}</td></tr>\n");
+        html.Append("</tbody>\n</table>\n</section>\n");
+    }
+
+    private static void Priorities(StringBuilder html, ReportData data)
+    {
+        var spread = data.Priorities;
+        var total = spread.ByPriority.Sum(p => p.Alarms);
+        html.Append("<section id=\"priorities\">\n<h2>Alarm priority spread</h2>\n");
+        html.Append($"<p>{total} alarm{(total == 1 ? "" : "s")}: ");
+        html.Append(string.Join(", ", spread.ByPriority.Select(p => $"{p.Alarms} at priority {p.Priority}")));
+        html.Append(". The usual spread is about 80 % low, 15 % medium and 5 % high (ISA-18.2, EEMUA 191, from memory); priority 1 counts as high, 2 as medium, 3 and 4 as low.</p>\n");
+        html.Append("<table class=\"spread\">\n<thead><tr><th>level</th><th>priorities</th><th class=\"num\">alarms</th><th class=\"num\">share</th><th class=\"num\">usual</th><th class=\"share\">this plant (bar) against usual (mark)</th></tr></thead>\n<tbody>\n");
+        foreach (var share in spread.Shares)
+            html.Append($"<tr><td>{share.Level}</td><td>{share.Priorities}</td><td class=\"num\">{share.Alarms}</td><td class=\"num\">{N1(share.Percent)} %</td><td class=\"num\">{N(share.UsualPercent)} %</td><td class=\"share\">{Bar(share.Percent, "bar-" + share.Level, share.UsualPercent)}</td></tr>\n");
+        html.Append("</tbody>\n</table>\n</section>\n");
+    }
+
+    /// <summary>A horizontal bar as a div (prints with the page); an optional mark shows a target.</summary>
+    private static string Bar(double percent, string cssClass, double? mark = null) =>
+        $"<div class=\"bar\"><span class=\"{cssClass}\" style=\"width:{C(Math.Clamp(percent, 0, 100))}%\"></span>" +
+        (mark is { } m ? $"<i style=\"left:{C(Math.Clamp(m, 0, 100))}%\"></i>" : "") + "</div>";
+
+    private static readonly (string Part, string Color)[] LoopColors =
+    {
+        ("device", "#4f6fa8"), ("card input", "#9db8d9"), ("shunt", "#9db8d9"), ("barrier", "#d0a35e"), ("cable", "#86b58f"), ("extra", "#b98fc0"),
+    };
+
+    private static string LoopColor(string part) => LoopColors.FirstOrDefault(c => c.Part == part).Color ?? "#999999";
+
+    private static void Loops(StringBuilder html, ReportData data)
+    {
+        var chart = data.Loops;
+        html.Append("<section id=\"loops\">\n<h2>Loop budgets</h2>\n");
+        if (chart.Loops.IsEmpty)
+        {
+            html.Append("<p>No point has a loop block.</p>\n</section>\n");
+            return;
+        }
+        html.Append("<p>What each two-wire loop needs at its budget current (transmitter minimum voltage plus the drop across every series resistance), against its supply (black mark). A loop passes when the need stays left of the mark.</p>\n");
+        html.Append("<p class=\"legend\">");
+        foreach (var (part, color) in LoopColors.Where(c => c.Part != "shunt"))
+            html.Append($"<span><i style=\"background:{color}\"></i>{(part == "card input" ? "card input or shunt" : part)}</span>");
+        html.Append("</p>\n");
+        const double width = 360, height = 18;
+        double X(double volts) => volts / chart.ScaleVolts * width;
+        html.Append("<table class=\"loops\">\n<thead><tr><th>point</th><th class=\"barcell\">");
+        html.Append($"<svg class=\"axis\" viewBox=\"0 0 {C(width)} 14\" role=\"img\" aria-label=\"volts\">");
+        for (var v = 0.0; v <= chart.ScaleVolts + 1e-9; v += 5)
+            html.Append($"<text x=\"{C(Math.Clamp(X(v), 6, width - 10))}\" y=\"11\" text-anchor=\"middle\">{N(v)}{(v + 5 > chart.ScaleVolts ? " V" : "")}</text>");
+        html.Append("</svg></th><th class=\"num\">needs</th><th class=\"num\">supply</th><th class=\"num\">margin</th><th class=\"num\">loop</th><th>HART</th></tr></thead>\n<tbody>\n");
+        foreach (var loop in chart.Loops)
+        {
+            var bar = new StringBuilder();
+            bar.Append($"<svg class=\"budget\" viewBox=\"0 0 {C(width)} {C(height)}\" role=\"img\" aria-label=\"needs {N2(loop.MinSupplyVolts)} V of {N(loop.SupplyVolts)} V\">");
+            var at = 0.0;
+            foreach (var need in loop.Needs)
+            {
+                bar.Append($"<rect x=\"{C(X(at))}\" y=\"3\" width=\"{C(X(need.Volts))}\" height=\"{C(height - 6)}\" fill=\"{LoopColor(need.Part)}\"><title>{E(need.Part)}: {N2(need.Volts)} V{(need.Ohms > 0 ? $" across {N1(need.Ohms)} ohm" : "")}</title></rect>");
+                at += need.Volts;
+            }
+            bar.Append($"<rect x=\"{C(X(loop.SupplyVolts) - 1)}\" y=\"0\" width=\"2\" height=\"{C(height)}\" fill=\"#111\"/>");
+            bar.Append("</svg>");
+            var hart = loop.HartOk switch { null => "", true => "window ok", false => "<b class=\"bad\">outside window</b>" };
+            html.Append($"<tr class=\"{(loop.Ok ? "" : "failing")}\"><td><a href=\"#{Anchor(loop.Tag)}\">{E(loop.Tag)}</a></td><td class=\"barcell\">{bar}</td><td class=\"num\">{N2(loop.MinSupplyVolts)} V</td><td class=\"num\">{N(loop.SupplyVolts)} V</td><td class=\"num{(loop.Ok ? "" : " bad")}\">{N2(loop.MarginVolts)} V</td><td class=\"num\">{N1(loop.TotalOhms)} of {N1(loop.MaxOhms)} ohm</td><td>{hart}</td></tr>\n");
+        }
+        html.Append("</tbody>\n</table>\n</section>\n");
+    }
+
+    private static void Points(StringBuilder html, ReportData data)
+    {
+        html.Append("<section id=\"points\">\n<h2>Points</h2>\n");
+        html.Append("<p>Each chart is the point's transfer curve: the value it shows for a loop current from 3 to 22 mA (from 0 mA on a signal without live zero), from the same arithmetic as the generated code (before the fault action and the filter). Shaded columns are the current bands; shaded rows are alarm deadbands between setpoint and reset; dots mark the trip currents.</p>\n");
+        html.Append("<p class=\"legend\"><span><i class=\"sw-curve\"></i>value</span><span><i class=\"sw-fault\"></i>FAULT_LOW / FAULT_HIGH (value follows on-fault)</span><span><i class=\"sw-range\"></i>UNDER / OVER</span><span><i class=\"sw-card\"></i>CARD_FAULT (beyond the card's limits)</span><span><i class=\"sw-hi\"></i>HH / LL setpoint and deadband</span><span><i class=\"sw-lo\"></i>H / L setpoint and deadband</span></p>\n");
+        html.Append("<nav class=\"toc\">");
+        html.Append(string.Join(" ", data.Points.Select(p => $"<a href=\"#{Anchor(p.Tag)}\">{E(p.Tag)}</a>")));
+        html.Append("</nav>\n");
+        foreach (var point in data.Points) PointCard(html, point);
+        html.Append("</section>\n");
+    }
+
+    private static void PointCard(StringBuilder html, ReportPoint p)
+    {
+        html.Append($"<section class=\"point\" id=\"{Anchor(p.Tag)}\">\n");
+        html.Append($"<h3><span class=\"tag\">{E(p.Tag)}</span> {E(p.Description)}</h3>\n");
+        html.Append("<div class=\"point-body\">\n");
+        TransferChart(html, p);
+        html.Append("<table class=\"facts\">\n<tbody>\n");
+        Fact(html, "range", $"{N(p.Lrv)} .. {N(p.Urv)} {p.Unit}{(p.Lrv > p.Urv ? " (reverse acting)" : "")}");
+        Fact(html, "signal", $"{N(p.SignalLowMa)} .. {N(p.SignalHighMa)} mA{(p.ShuntOhms is { } shunt ? $" through a {N(shunt)} ohm shunt" : "")}");
+        Fact(html, "card", $"{p.Card} at \"{p.Address}\"");
+        Fact(html, "square root", p.SquareRoot ? $"yes, cutoff {N(p.CutoffPercent ?? 0)} % of flow" : "no");
+        Fact(html, "health", p.Health);
+        Fact(html, "on fault", p.OnFault);
+        Fact(html, "filter", p.FilterSeconds > 0 ? $"{N(p.FilterSeconds)} s" : "none");
+        Fact(html, "measure", p.Measure);
+        Fact(html, "tolerance", $"{N(p.TolerancePercent)} % of span");
+        html.Append("</tbody>\n</table>\n</div>\n");
+        if (p.Alarms.IsEmpty)
+        {
+            html.Append("<p class=\"no-alarms\">No alarms.</p>\n");
+        }
+        else
+        {
+            html.Append("<table class=\"alarms\">\n<thead><tr><th>alarm</th><th class=\"num\">setpoint</th><th class=\"num\">deadband</th><th class=\"num\">resets at</th><th class=\"num\">trip current</th><th class=\"num\">reset current</th><th class=\"num\">delay / clear</th><th class=\"num\">priority</th><th>text</th></tr></thead>\n<tbody>\n");
+            foreach (var a in p.Alarms)
+                html.Append($"<tr><td><b class=\"kind {KindClass(a.Kind)}\">{a.Kind}</b></td><td class=\"num\">{N(a.Setpoint)} {E(p.Unit)}</td><td class=\"num\">{Sig(a.Deadband)}</td><td class=\"num\">{Sig(a.ResetValue)}</td><td class=\"num\">{N2(a.TripMa)} mA{Raw(a.TripRaw)}</td><td class=\"num\">{N2(a.ResetMa)} mA{Raw(a.ResetRaw)}</td><td class=\"num\">{N(a.DelaySeconds)} s / {N(a.ClearSeconds)} s</td><td class=\"num\">{a.Priority}</td><td>{E(a.Text ?? "")}</td></tr>\n");
+            html.Append("</tbody>\n</table>\n");
+        }
+        html.Append("</section>\n");
+    }
+
+    private static string Raw(long? raw) => raw is { } r ? $"<small> raw {r}</small>" : "";
+
+    private static void Fact(StringBuilder html, string name, string value) =>
+        html.Append($"<tr><th>{name}</th><td>{E(value)}</td></tr>\n");
+
+    private static string KindClass(string kind) => kind is "HH" or "LL" ? "hi" : "lo";
+
+    // ---- the transfer chart ------------------------------------------------------------
+
+    private const double ChartWidth = 460, ChartHeight = 250;
+    private const double PlotLeft = 58, PlotRight = 448, PlotTop = 24, PlotBottom = 214;
+
+    private static void TransferChart(StringBuilder html, ReportPoint p)
+    {
+        var curve = p.Curve;
+        var values = curve.Pieces.SelectMany(piece => piece.Select(c => c.Value))
+            .Concat(p.Alarms.SelectMany(a => new[] { a.Setpoint, a.ResetValue }))
+            .ToList();
+        var ticks = NiceTicks(values.Min(), values.Max());
+        double lo = ticks[0], hi = ticks[^1];
+        double X(double ma) => PlotLeft + (ma - curve.FromMa) / (curve.ToMa - curve.FromMa) * (PlotRight - PlotLeft);
+        double Y(double value) => PlotBottom - (value - lo) / (hi - lo) * (PlotBottom - PlotTop);
+
+        html.Append($"<svg class=\"curve\" viewBox=\"0 0 {C(ChartWidth)} {C(ChartHeight)}\" role=\"img\" aria-label=\"transfer curve of {E(p.Tag)}\">\n");
+        foreach (var band in p.Bands.Where(b => b.Status != "OK"))
+        {
+            var (x1, x2) = (X(band.FromMa), X(band.ToMa));
+            html.Append($"<rect class=\"band {BandClass(band.Status)}\" x=\"{C(x1)}\" y=\"{C(PlotTop)}\" width=\"{C(x2 - x1)}\" height=\"{C(PlotBottom - PlotTop)}\"><title>{band.Status}: {N2(band.FromMa)} .. {N2(band.ToMa)} mA</title></rect>\n");
+        }
+        foreach (var tick in ticks)
+            html.Append($"<line class=\"grid\" x1=\"{C(PlotLeft)}\" y1=\"{C(Y(tick))}\" x2=\"{C(PlotRight)}\" y2=\"{C(Y(tick))}\"/><text class=\"ylabel\" x=\"{C(PlotLeft - 5)}\" y=\"{C(Y(tick) + 3.5)}\">{N(tick)}</text>\n");
+        for (var ma = Math.Ceiling(curve.FromMa / 4) * 4; ma <= curve.ToMa; ma += 4)
+            html.Append($"<line class=\"grid\" x1=\"{C(X(ma))}\" y1=\"{C(PlotTop)}\" x2=\"{C(X(ma))}\" y2=\"{C(PlotBottom)}\"/><text class=\"xlabel\" x=\"{C(X(ma))}\" y=\"{C(PlotBottom + 14)}\">{N(ma)}</text>\n");
+        html.Append($"<text class=\"axis-title\" x=\"{C(PlotRight)}\" y=\"{C(PlotBottom + 30)}\" text-anchor=\"end\">loop current, mA</text><text class=\"axis-title\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop - 8)}\" text-anchor=\"start\">{E(p.Unit)}</text>\n");
+        foreach (var a in p.Alarms)
+        {
+            var (top, bottom) = (Y(Math.Max(a.Setpoint, a.ResetValue)), Y(Math.Min(a.Setpoint, a.ResetValue)));
+            var kind = KindClass(a.Kind);
+            // One line per alarm: moving a setpoint changes this line (and the alarm table's row) only.
+            html.Append($"<g class=\"alarm {kind}\"><rect class=\"deadband\" x=\"{C(PlotLeft)}\" y=\"{C(top)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(Math.Max(bottom - top, 0))}\"/><line class=\"setpoint\" x1=\"{C(PlotLeft)}\" y1=\"{C(Y(a.Setpoint))}\" x2=\"{C(PlotRight)}\" y2=\"{C(Y(a.Setpoint))}\"/>");
+            if (a.TripMa >= curve.FromMa && a.TripMa <= curve.ToMa)
+                html.Append($"<circle cx=\"{C(X(a.TripMa))}\" cy=\"{C(Y(a.Setpoint))}\" r=\"3.2\"/>");
+            var labelAtRight = a.Kind is "HH" or "LL";
+            html.Append($"<text class=\"alarm-label\" x=\"{C(labelAtRight ? PlotRight - 4 : PlotLeft + 4)}\" y=\"{C(Y(a.Setpoint) - 4)}\" text-anchor=\"{(labelAtRight ? "end" : "start")}\">{a.Kind} {N(a.Setpoint)}</text></g>\n");
+        }
+        foreach (var piece in curve.Pieces)
+            html.Append($"<polyline class=\"transfer\" points=\"{string.Join(" ", piece.Select(c => $"{C(X(c.Ma))},{C(Y(Math.Clamp(c.Value, lo, hi)))}"))}\"/>\n");
+        html.Append($"<rect class=\"frame\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(PlotBottom - PlotTop)}\"/>\n");
+        html.Append("</svg>\n");
+    }
+
+    private static string BandClass(string status) => status switch
+    {
+        "FAULT_LOW" or "FAULT_HIGH" => "fault",
+        "CARD_FAULT" => "card",
+        _ => "range",
+    };
+
+    /// <summary>
+    /// Round ticks (1, 2, 2.5 or 5 times a power of ten) that cover min .. max with as little
+    /// empty space as possible, at most nine of them.
+    /// </summary>
+    public static IReadOnlyList<double> NiceTicks(double min, double max)
+    {
+        if (max - min <= 0) { min -= 1; max += 1; }
+        var power = Math.Pow(10, Math.Floor(Math.Log10((max - min) / 5)));
+        (double First, double Last, double Step)? best = null;
+        foreach (var scale in new[] { power / 10, power, power * 10 })
+            foreach (var multiple in new[] { 1.0, 2, 2.5, 5 })
+            {
+                var step = multiple * scale;
+                var first = Math.Floor(min / step + 1e-9);
+                var last = Math.Ceiling(max / step - 1e-9);
+                if (last - first + 1 > 9) continue;
+                var span = (last - first) * step;
+                if (best is not { } b || span < (b.Last - b.First) * b.Step - 1e-9 * span)
+                    best = (first, last, step);
+            }
+        var (f, l, st) = best!.Value;
+        var ticks = new List<double>();
+        for (var k = f; k <= l; k++) ticks.Add(Math.Round(k * st, 10));
+        return ticks;
+    }
+
+    private static void Cautions(StringBuilder html, ReportData data)
+    {
+        html.Append("<section id=\"cautions\" class=\"cautions\">\n<h2>Cautions</h2>\n<ul>\n");
+        foreach (var caution in data.Cautions) html.Append($"<li>{E(caution)}</li>\n");
+        html.Append("</ul>\n</section>\n");
+    }
+
+    // ---- small helpers -------------------------------------------------------------------
+
+    private static string E(string text) => WebUtility.HtmlEncode(text);
+
+    /// <summary>An id for a tag: tags are [A-Za-z][A-Za-z0-9_-]*, already safe in an id.</summary>
+    private static string Anchor(string tag) => "pt-" + tag;
+
+    private static string N(double value) => DisplayNumbers.Exact(value);
+    private static string N1(double value) => DisplayNumbers.Fixed(value, 1);
+    private static string N2(double value) => DisplayNumbers.Fixed(value, 2);
+    private static string Sig(double value) => DisplayNumbers.Significant(value, 4);
+
+    /// <summary>An SVG coordinate: one decimal is finer than any printer dot at this size.</summary>
+    private static string C(double value) => DisplayNumbers.Fixed(value, 1);
+
+    private const string Style = """
+        :root { --ink: #1c2230; --muted: #5b6474; --rule: #d5dae2; --accent: #1f4e9c; --bad: #b3261e; --warn: #b85c00; --hi: #b3261e; --lo: #cc7a00; }
+        * { box-sizing: border-box; }
+        body { font: 14px/1.45 "Segoe UI", Roboto, "Helvetica Neue", Arial, "DejaVu Sans", sans-serif; color: var(--ink); margin: 0 auto; max-width: 1020px; padding: 28px 32px 48px; background: #fff; }
+        h1 { font-size: 28px; margin: 0 0 4px; letter-spacing: -0.01em; }
+        h2 { font-size: 19px; margin: 34px 0 10px; padding-bottom: 4px; border-bottom: 2px solid var(--accent); break-after: avoid; page-break-after: avoid; }
+        h3 { font-size: 15px; margin: 16px 0 6px; }
+        p { margin: 6px 0 10px; }
+        .kicker { margin: 0; text-transform: uppercase; letter-spacing: 0.12em; font-size: 12px; color: var(--accent); font-weight: 600; }
+        .meta { color: var(--muted); margin-top: 0; }
+        .caution { border-left: 4px solid var(--warn); background: #fff6e6; padding: 10px 14px; margin: 16px 0; }
+        table { border-collapse: collapse; width: 100%; }
+        th, td { text-align: left; padding: 4px 8px; border-bottom: 1px solid var(--rule); vertical-align: top; }
+        thead th { font-weight: 600; color: var(--muted); font-size: 12px; border-bottom: 1.5px solid #aeb6c2; }
+        .num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+        td small { color: var(--muted); }
+        code.hash { font-size: 11px; word-break: break-all; color: var(--muted); }
+        .tiles { display: grid; grid-template-columns: repeat(4, 1fr); gap: 12px; margin: 8px 0 6px; }
+        .tile { border: 1px solid var(--rule); border-radius: 6px; padding: 10px 14px; }
+        .tile b { display: block; font-size: 26px; line-height: 1.1; }
+        .tile span { color: var(--muted); }
+        .tile small { display: block; color: var(--muted); }
+        .tile.flagged { border-color: var(--warn); background: #fff6e6; }
+        .columns { display: grid; grid-template-columns: 1fr 1.4fr; gap: 24px; }
+        .share { width: 42%; }
+        .bar { position: relative; height: 12px; background: #eef1f5; border-radius: 2px; }
+        .bar span { position: absolute; left: 0; top: 0; bottom: 0; border-radius: 2px; }
+        .bar i { position: absolute; top: -3px; bottom: -3px; width: 2px; margin-left: -1px; background: #111; }
+        .bar-measure { background: #7f9cc8; }
+        .bar-high { background: var(--hi); }
+        .bar-medium { background: var(--lo); }
+        .bar-low { background: #7f9cc8; }
+        .badge { display: inline-block; padding: 0 6px; border-radius: 3px; font-size: 12px; font-weight: 600; color: #fff; }
+        .badge.error { background: var(--bad); }
+        .badge.warning { background: var(--warn); }
+        .where { white-space: nowrap; font-family: ui-monospace, "DejaVu Sans Mono", Consolas, monospace; font-size: 12px; }
+        .ok-note { color: #2c6e3f; font-weight: 600; }
+        .bad { color: var(--bad); }
+        .legend { font-size: 12px; color: var(--muted); }
+        .legend span { display: inline-block; margin-right: 14px; white-space: nowrap; }
+        .legend i { display: inline-block; width: 14px; height: 10px; margin-right: 5px; vertical-align: -1px; border: 1px solid rgba(0,0,0,0.15); }
+        .legend i.sw-curve { height: 3px; vertical-align: 2px; background: var(--accent); border: 0; }
+        .legend i.sw-fault { background: #f4d4d2; }
+        .legend i.sw-range { background: #fbeccf; }
+        .legend i.sw-card { background: #dcdfe4; }
+        .legend i.sw-hi { background: rgba(179, 38, 30, 0.22); border-top: 2px dashed var(--hi); }
+        .legend i.sw-lo { background: rgba(204, 122, 0, 0.22); border-top: 2px dashed var(--lo); }
+        table.loops td, table.loops th { padding: 3px 8px; }
+        .barcell { width: 380px; }
+        svg.axis { width: 100%; height: auto; display: block; }
+        svg.axis text { font-size: 10px; fill: var(--muted); }
+        svg.budget { width: 100%; height: auto; display: block; background: #f3f5f8; }
+        tr.failing td { background: #fbe9e8; }
+        nav.toc { font-size: 12px; line-height: 1.9; margin: 6px 0 10px; }
+        nav.toc a { display: inline-block; padding: 0 6px; margin: 0 2px 2px 0; border: 1px solid var(--rule); border-radius: 3px; text-decoration: none; color: var(--accent); }
+        a { color: var(--accent); }
+        .point { border: 1px solid var(--rule); border-radius: 6px; padding: 10px 14px 12px; margin: 14px 0; break-inside: avoid; page-break-inside: avoid; }
+        .point h3 { margin: 0 0 6px; font-weight: 500; }
+        .point h3 .tag { font-weight: 700; margin-right: 6px; }
+        .point-body { display: grid; grid-template-columns: minmax(0, 460px) 1fr; gap: 16px; align-items: start; }
+        .facts th { width: 84px; color: var(--muted); font-weight: 500; font-size: 12px; }
+        .facts td, .facts th { padding: 2px 6px; vertical-align: baseline; }
+        table.alarms { margin-top: 8px; font-size: 13px; }
+        .kind.hi { color: var(--hi); }
+        .kind.lo { color: var(--lo); }
+        .no-alarms { color: var(--muted); font-size: 13px; }
+        svg.curve { width: 100%; height: auto; display: block; }
+        svg.curve text { font-size: 10.5px; fill: var(--muted); }
+        svg.curve .ylabel { text-anchor: end; }
+        svg.curve .xlabel { text-anchor: middle; }
+        svg.curve .axis-title { font-size: 11px; fill: var(--ink); }
+        svg.curve .grid { stroke: #e6e9ee; stroke-width: 1; }
+        svg.curve .frame { fill: none; stroke: #9aa3b0; stroke-width: 1; }
+        svg.curve .band.fault { fill: #f4d4d2; }
+        svg.curve .band.range { fill: #fbeccf; }
+        svg.curve .band.card { fill: #dcdfe4; }
+        svg.curve .transfer { fill: none; stroke: var(--accent); stroke-width: 2.2; stroke-linejoin: round; }
+        svg.curve .alarm.hi { --c: var(--hi); }
+        svg.curve .alarm.lo { --c: var(--lo); }
+        svg.curve .deadband { fill: var(--c); fill-opacity: 0.16; }
+        svg.curve .setpoint { stroke: var(--c); stroke-width: 1.3; stroke-dasharray: 5 3; }
+        svg.curve .alarm circle { fill: var(--c); stroke: #fff; stroke-width: 1; }
+        svg.curve .alarm-label { font-size: 10.5px; font-weight: 700; fill: var(--c); paint-order: stroke; stroke: #fff; stroke-width: 3px; stroke-linejoin: round; }
+        .cautions ul { padding-left: 18px; }
+        .cautions li { margin: 4px 0; }
+        @media print {
+          @page { size: A4; margin: 12mm; }
+          * { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
+          body { max-width: none; padding: 0; font-size: 10pt; }
+          h2 { margin-top: 20px; }
+          nav.toc { display: none; }
+          a { color: inherit; text-decoration: none; }
+          .point { margin: 8px 0; padding: 8px 10px; }
+          .point-body { grid-template-columns: 58% 1fr; gap: 10px; }
+          table.alarms { font-size: 8.5pt; }
+          table.alarms td small { display: block; }
+          table.alarms td:last-child { min-width: 30%; }
+          .facts th { width: 70px; }
+          tr, #priorities { break-inside: avoid; page-break-inside: avoid; }
+          #points { break-before: page; page-break-before: always; }
+        }
+        @media screen and (max-width: 760px) {
+          .point-body, .columns { grid-template-columns: 1fr; }
+          .tiles { grid-template-columns: repeat(2, 1fr); }
+        }
+
+        """;
+}
