@@ -352,6 +352,7 @@ public static class ReportHtml
         .legend i.sw-hi { background: rgba(179, 38, 30, 0.22); border-top: 2px dashed var(--hi); }
         .legend i.sw-lo { background: rgba(204, 122, 0, 0.22); border-top: 2px dashed var(--lo); }
         table.loops td, table.loops th { padding: 3px 8px; }
+        table.loops td:first-child, table.loops td:last-child { white-space: nowrap; }
         .barcell { width: 380px; }
         svg.axis { width: 100%; height: auto; display: block; }
         svg.axis text { font-size: 10px; fill: var(--muted); }
