@@ -706,7 +706,8 @@ public sealed class Binder
                         var d = option.Quantity!;
                         if (d.Unit is { Text: "%" } && !d.Unit.Quoted)
                             deadband = d.Value / 100 * absSpan;
-                        else if (d.Unit is null || d.Unit.Text == unit)
+                        // Without a bound range the unit cannot be judged; the range's own error says enough.
+                        else if (d.Unit is null || d.Unit.Text == unit || !haveRange)
                             deadband = d.Value;
                         else
                         {

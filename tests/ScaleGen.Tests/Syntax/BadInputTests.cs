@@ -210,6 +210,15 @@ public class BadInputTests
     }
 
     [Fact]
+    public void A_broken_range_does_not_make_deadbands_in_engineering_units_wrong()
+    {
+        var compilation = TestInputs.Compile(WithCard(
+            "point FT-1 {\n  card AI16\n  health ne43\n  rnage 0 .. 900 m3/h\n  alarm H 850 deadband 45 m3/h\n}\n"));
+        var error = Assert.Single(compilation.Diagnostics);
+        Assert.Equal("SG0010", error.Code);
+    }
+
+    [Fact]
     public void An_unknown_profile_hides_what_the_profile_might_have_set()
     {
         var compilation = TestInputs.Compile(WithCard("point FT-1 uses flwo {\n  range 0 .. 1 bar\n}\n"));
