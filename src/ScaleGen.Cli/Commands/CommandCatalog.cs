@@ -12,5 +12,6 @@ internal static class CommandCatalog
         yield return EvalCommand.Create(io);
         yield return LoopCommand.Create(io);
         yield return SheetsCommand.Create(io);
+        yield return VerifyCommand.Create(io);
     }
 }
