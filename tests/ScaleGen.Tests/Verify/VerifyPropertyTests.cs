@@ -104,6 +104,10 @@ public class VerifyPropertyTests
         return text.ToString();
     }
 
+    /// <summary>Plants per run: 6 (about 300 points); set SCALEGEN_VERIFY_PLANTS for a longer soak.</summary>
+    private static long Plants =>
+        long.TryParse(Environment.GetEnvironmentVariable("SCALEGEN_VERIFY_PLANTS"), NumberStyles.None, CultureInfo.InvariantCulture, out var n) && n > 0 ? n : 6;
+
     [Fact]
     public void Random_plants_verify_against_the_reference()
     {
@@ -118,7 +122,7 @@ public class VerifyPropertyTests
             var failures = result.Points.Where(p => !p.Ok).Select(p => $"{p.Point}: {p.FirstFailure}").ToList();
             Assert.True(failures.Count == 0, string.Join("\n", failures) + "\n" + text);
             Interlocked.Add(ref points, result.Points.Length);
-        }, iter: 6, threads: 1, print: PlantText);
+        }, iter: Plants, threads: 1, print: PlantText);
         Assert.True(points >= 240, $"only {points} random points were verified");
     }
 }
