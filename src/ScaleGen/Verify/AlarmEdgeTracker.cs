@@ -43,7 +43,7 @@ internal sealed class AlarmEdgeTracker
 
     public void Reset()
     {
-        _shadow = new AlarmStateMachine(_alarm, _cycleSeconds);
+        _shadow.Reset();
         _states = null;
     }
 

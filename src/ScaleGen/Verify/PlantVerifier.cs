@@ -226,9 +226,9 @@ public static class PlantVerifier
             throw new StReadException(where, $"no PROGRAM {StNames.Program}: verify runs the plant program plant.st declares (give plant.st and library.st)");
         var at = program.Syntax!.Location;
 
-        var set = new StringBuilder();
-        var reset = new StringBuilder();
-        var read = new StringBuilder();
+        // One small method per point and purpose, reached through arrays of delegates: a
+        // switch over a thousand points would be one method too large for the JIT to optimise.
+        var methods = new StringBuilder();
         var owner = new Dictionary<string, int>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < points.Length; i++)
         {
@@ -259,17 +259,17 @@ public static class PlantVerifier
             owner[instance.Name] = i;
             if (program.VariableIndex.TryGetValue(point.Parameters, out var parameters)) owner[parameters.Name] = i;
 
-            var index = i.ToString(CultureInfo.InvariantCulture);
-            set.Append("                case ").Append(index).Append(": p.").Append(raw.CsName).Append(" = (").Append(raw.Type.CsName)
+            var n = i.ToString(CultureInfo.InvariantCulture);
+            methods.Append("        private void Set_").Append(n).Append("(long raw) => p.").Append(raw.CsName).Append(" = (").Append(raw.Type.CsName)
                 .Append(")StRt.Fit(raw, ").Append(raw.Type.Min).Append("L, ").Append(raw.Type.Max).Append("L, -1, \"")
-                .Append(raw.Type.Name).Append(" (").Append(raw.Name).Append(")\"); break;\n");
-            reset.Append("                case ").Append(index).Append(": p.").Append(instance.CsName).Append(".__Init(); break;\n");
-            read.Append("                case ").Append(index).Append(": { var b = p.").Append(instance.CsName).Append("; ")
+                .Append(raw.Type.Name).Append(" (").Append(raw.Name).Append(")\");\n");
+            methods.Append("        private void Reset_").Append(n).Append("() => p.").Append(instance.CsName).Append(".__Init();\n");
+            methods.Append("        private void Read_").Append(n).Append("(ref StPointOutputs o) { var b = p.").Append(instance.CsName).Append("; ")
                 .Append("o.Value = b.").Append(value.CsName).Append("; o.Status = (int)b.").Append(status.CsName)
                 .Append("; o.Fault = b.").Append(fault.CsName);
             foreach (var (kind, alarm) in StNames.AlarmKinds.Zip(alarms))
-                read.Append("; o.Alarm").Append(kind).Append(" = b.").Append(alarm.CsName);
-            read.Append("; break; }\n");
+                methods.Append("; o.Alarm").Append(kind).Append(" = b.").Append(alarm.CsName);
+            methods.Append("; }\n");
         }
 
         // Does the program split by point? Each top-level statement must touch the
@@ -283,13 +283,15 @@ public static class PlantVerifier
             if (owners.Count > 1 || owners[0] < 0) perPoint = false;
             else statementsOf[owners[0]].Add(k);
         }
-        var scanPoint = new StringBuilder();
-        for (var i = 0; perPoint && i < points.Length; i++)
+        for (var i = 0; i < points.Length; i++)
         {
-            scanPoint.Append("                case ").Append(i.ToString(CultureInfo.InvariantCulture)).Append(':');
-            foreach (var k in statementsOf[i]) scanPoint.Append(" p.S_").Append(k.ToString(CultureInfo.InvariantCulture)).Append("();");
-            scanPoint.Append(" break;\n");
+            methods.Append("        private void Scan_").Append(i.ToString(CultureInfo.InvariantCulture)).Append("() {");
+            foreach (var k in perPoint ? statementsOf[i] : []) methods.Append(" p.S_").Append(k.ToString(CultureInfo.InvariantCulture)).Append("();");
+            methods.Append(" }\n");
         }
+
+        string Table(string type, string name) =>
+            $"new {type}[] {{ {string.Join(", ", Enumerable.Range(0, points.Length).Select(i => name + "_" + i.ToString(CultureInfo.InvariantCulture)))} }}";
 
         return $$"""
             using System;
@@ -297,46 +299,42 @@ public static class PlantVerifier
 
             namespace {{StTranslator.Namespace}}
             {
+                public delegate void ReadOutputs(ref StPointOutputs outputs);
+
                 public sealed class {{HarnessClass}} : IStPlantHarness
                 {
                     private readonly {{program.CsName}} p;
+                    private readonly Action<long>[] _set;
+                    private readonly Action[] _reset;
+                    private readonly Action[] _scan;
+                    private readonly ReadOutputs[] _read;
 
-                    public {{HarnessClass}}(StClock clock) { p = new {{program.CsName}}(clock); }
-
-                    public void Scan() => p.Body();
+                    public {{HarnessClass}}(StClock clock)
+                    {
+                        p = new {{program.CsName}}(clock);
+                        _set = {{Table("Action<long>", "Set")}};
+                        _reset = {{Table("Action", "Reset")}};
+                        _scan = {{Table("Action", "Scan")}};
+                        _read = {{Table("ReadOutputs", "Read")}};
+                    }
 
                     public bool PerPoint => {{(perPoint ? "true" : "false")}};
 
-                    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveOptimization)]
+                    public void Scan() => p.Body();
+
+                    public void SetRaw(int point, long raw) => _set[point](raw);
+
+                    public void ResetPoint(int point) => _reset[point]();
+
                     public void ScanPoint(int point)
                     {
-                        switch (point)
-                        {
-            {{scanPoint}}                default: throw new InvalidOperationException("the program does not split by point");
-                        }
+                        if (!PerPoint) throw new InvalidOperationException("the program does not split by point");
+                        _scan[point]();
                     }
 
-                    public void SetRaw(int point, long raw)
-                    {
-                        switch (point)
-                        {
-            {{set}}            }
-                    }
+                    public void Read(int point, ref StPointOutputs o) => _read[point](ref o);
 
-                    public void ResetPoint(int point)
-                    {
-                        switch (point)
-                        {
-            {{reset}}            }
-                    }
-
-                    public void Read(int point, ref StPointOutputs o)
-                    {
-                        switch (point)
-                        {
-            {{read}}            }
-                    }
-                }
+            {{methods}}    }
             }
             """;
     }

@@ -237,7 +237,10 @@ internal sealed class StTranslator
         code.Append("    public struct ").Append(type.CsName).Append("\n    {\n");
         foreach (var field in type.Fields)
             code.Append("        public ").Append(field.Type.CsName).Append(' ').Append(field.CsName).Append(";\n");
-        code.Append("        public static ").Append(type.CsName).Append(" __Init()\n        {\n");
+        // The initial value is made once and copied: blocks are reset for every case the verifier runs.
+        code.Append("        private static readonly ").Append(type.CsName).Append(" __Initial = __Make();\n\n");
+        code.Append("        public static ").Append(type.CsName).Append(" __Init() => __Initial;\n\n");
+        code.Append("        private static ").Append(type.CsName).Append(" __Make()\n        {\n");
         code.Append("            ").Append(type.CsName).Append(" r = default;\n");
         foreach (var field in type.Fields)
             WriteInit(code, "            ", "r." + field.CsName, field.Type, field.Initializer);
@@ -312,7 +315,9 @@ internal sealed class StTranslator
         // Each variable's initial value in its own method keeps methods small for the JIT
         // (a program's parameter records run to dozens of statements each).
         var initMethods = new StringBuilder();
-        code.Append("\n        public void __Init()\n        {\n");
+        code.Append('\n');
+        if (pou.Kind == StPouKind.FunctionBlock) code.Append("        ").Append(HotPath).Append('\n');
+        code.Append("        public void __Init()\n        {\n");
         foreach (var variable in pou.Variables)
         {
             if (variable.Type.Kind == StKind.Block)
@@ -336,9 +341,16 @@ internal sealed class StTranslator
         {
             // A program: one method per top-level statement, so the verifier can also run
             // the statements of one point alone, and a note of the variables each touches.
-            code.Append("\n        ").Append(HotPath).Append("\n        public void Body()\n        {\n");
-            for (var i = 0; i < body.Length; i++) code.Append("            S_").Append(i).Append("();\n");
+            var groups = Enumerable.Range(0, body.Length).Chunk(StatementsPerMethod).ToList();
+            code.Append("\n        public void Body()\n        {\n");
+            for (var g = 0; g < groups.Count; g++) code.Append("            Body_").Append(g).Append("();\n");
             code.Append("        }\n");
+            for (var g = 0; g < groups.Count; g++)
+            {
+                code.Append("\n        ").Append(HotPath).Append("\n        private void Body_").Append(g).Append("()\n        {\n");
+                foreach (var i in groups[g]) code.Append("            S_").Append(i).Append("();\n");
+                code.Append("        }\n");
+            }
             for (var i = 0; i < body.Length; i++)
             {
                 _referenced = new HashSet<string>(StringComparer.OrdinalIgnoreCase);

@@ -69,7 +69,10 @@ public static class VerifySweep
             AddAround(SignalPath.NearestRaw(point, ma));
 
         single.Sort();
-        single = single.Distinct().ToList();
+        var distinct = 0;
+        for (var i = 0; i < single.Count; i++)
+            if (i == 0 || single[i] != single[distinct - 1]) single[distinct++] = single[i];
+        single.RemoveRange(distinct, single.Count - distinct);
         var cases = new List<SweepCase>(single.Count + 32);
         foreach (var raw in single) cases.Add(new SweepCase(OneScan, [raw]));
 
@@ -78,7 +81,17 @@ public static class VerifySweep
         var good = single.Where(IsGood).ToList();
         if (good.Count == 0) return cases; // every count is a fault: the one-scan cases say all there is
         var (minGood, maxGood) = (good[0], good[^1]);
-        long GoodNear(long raw) => IsGood(raw) ? raw : good.MinBy(g => Math.Abs(g - raw));
+        long GoodNear(long raw)
+        {
+            if (IsGood(raw)) return raw;
+            // The nearest good count of the one-scan set (sorted): one of the two around raw.
+            var index = good.BinarySearch(raw);
+            if (index >= 0) return good[index];
+            index = ~index;
+            if (index == 0) return good[0];
+            if (index == good.Count) return good[^1];
+            return raw - good[index - 1] <= good[index] - raw ? good[index - 1] : good[index];
+        }
         var signalLow = GoodNear(SignalPath.NearestRaw(point, point.SignalLowMa));
         var signalHigh = GoodNear(SignalPath.NearestRaw(point, point.SignalHighMa));
         var middle = GoodNear(SignalPath.NearestRaw(point, (point.SignalLowMa + point.SignalHighMa) / 2));
