@@ -62,9 +62,10 @@ public static class VerifyReport
         var edges = result.Points.Sum(p => p.EdgeScans);
         var edgeNote = edges > 0 ? Invariant($"; {edges} scans with an alarm bit decided within REAL precision of its edge") : "";
         var failed = result.Points.Count(p => !p.Ok);
+        var count = result.Points.Length;
         text.Append(failed == 0
-            ? Invariant($"verify: ok: all {result.Points.Length} points agree with the reference ({cases} cases, {scans} scans{edgeNote})\n")
-            : Invariant($"verify: FAILED: {failed} of {result.Points.Length} points disagree with the reference ({cases} cases, {scans} scans{edgeNote})\n"));
+            ? Invariant($"verify: ok: {(count == 1 ? "the 1 point agrees" : $"all {count} points agree")} with the reference ({cases} cases, {scans} scans{edgeNote})\n")
+            : Invariant($"verify: FAILED: {failed} of {count} point{(count == 1 ? "" : "s")} disagree{(failed == 1 && count == 1 ? "s" : "")} with the reference ({cases} cases, {scans} scans{edgeNote})\n"));
         return text.ToString();
     }
 

@@ -130,6 +130,33 @@ public class VerifyTamperTests
         Assert.True(result.Points.Single(p => p.Point == "PT-2").Ok);
     }
 
+    [Fact]
+    public void A_program_that_does_not_split_by_point_runs_in_lockstep()
+    {
+        var (compilation, library, plant) = Generate(TestInputs.CompileExample());
+        // A statement that reads two points: each point can no longer run alone.
+        plant = plant.Replace("\nEND_PROGRAM", "\nAnyFault := LT_101.Fault OR LT_102.Fault;\nEND_PROGRAM", StringComparison.Ordinal)
+            .Replace("PROGRAM SG_Plant\n", "PROGRAM SG_Plant\nVAR\n    AnyFault : BOOL;\nEND_VAR\n", StringComparison.Ordinal);
+
+        var result = Run(compilation, library, plant);
+        Assert.False(result.PerPoint);
+        Assert.True(result.Ok, string.Join("\n", result.Points.Where(p => !p.Ok).Select(p => $"{p.Point}: {p.FirstFailure}")));
+    }
+
+    [Fact]
+    public void A_call_with_another_points_parameters_fails_that_point()
+    {
+        var (compilation, library, plant) = Generate(TestInputs.CompileExample());
+        const string call = "PT_112(Raw := INT_TO_DINT(PT_112_Raw), Par := PT_112_Par);";
+        Assert.Contains(call, plant);
+        // PT-301 has the same range as PT-112 but other alarm setpoints and an L and LL alarm.
+        plant = plant.Replace(call, "PT_112(Raw := INT_TO_DINT(PT_112_Raw), Par := PT_301_Par);", StringComparison.Ordinal);
+
+        var result = Run(compilation, library, plant);
+        Assert.False(result.PerPoint);
+        Assert.Equal(["PT-112"], result.Points.Where(p => !p.Ok).Select(p => p.Point));
+    }
+
     [Theory]
     [InlineData("x := y MOD 3;\n", "'MOD' is not in the Structured Text subset", 8)]
     [InlineData("FOR i := 1 TO 3 DO Reading := Reading; END_FOR;\n", "'FOR' is not in the Structured Text subset", 1)]
