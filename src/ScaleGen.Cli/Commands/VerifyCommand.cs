@@ -32,7 +32,7 @@ internal static class VerifyCommand
         {
             var given = result.GetValue(st) ?? [];
             // Read the --st files before compiling, so a wrong path is a usage error whatever the plant says.
-            IReadOnlyList<SourceText>? texts = given.Length > 0 ? ReadStructuredText(given) : null;
+            IReadOnlyList<SourceText>? texts = given.Length > 0 ? given.Select(Inputs.ReadOne).ToList() : null;
             var compilation = Inputs.CompileOrReport(io, result.GetValue(files)!);
             if (compilation is null) return ExitCodes.Failed;
             texts ??= PlantVerifier.GenerateStructuredText(compilation);
@@ -47,24 +47,5 @@ internal static class VerifyCommand
             return verification.Ok ? ExitCodes.Ok : ExitCodes.Failed;
         });
         return command;
-    }
-
-    private static List<SourceText> ReadStructuredText(IEnumerable<string> paths)
-    {
-        var texts = new List<SourceText>();
-        foreach (var path in paths)
-        {
-            try
-            {
-                texts.Add(SourceText.FromFile(path));
-            }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
-            {
-                throw new UsageException(e is FileNotFoundException or DirectoryNotFoundException
-                    ? $"cannot read '{path}': no such file"
-                    : $"cannot read '{path}': {e.Message}");
-            }
-        }
-        return texts;
     }
 }

@@ -2,6 +2,7 @@ using System.Collections.Immutable;
 using System.Globalization;
 using System.Text;
 using Microsoft.CodeAnalysis.CSharp;
+using ScaleGen.Emit.StructuredText;
 using ScaleGen.Text;
 
 namespace ScaleGen.Verify;
@@ -184,7 +185,10 @@ internal sealed class StTranslator
             if (pou.Kind == StPouKind.Program) throw Error(reference, $"'{pou.Name}' is a PROGRAM, not a type");
             return new StType(StKind.Block, pou.Name, pou.CsName) { Pou = pou };
         }
-        throw Error(reference, $"unknown type '{reference.Name}'");
+        var hint = StNames.LibraryNames.Contains(reference.Name, StringComparer.OrdinalIgnoreCase)
+            ? $" (ScaleGen declares it in {StNames.LibraryFile}: give that file too)"
+            : "";
+        throw Error(reference, $"unknown type '{reference.Name}'{hint}");
     }
 
     private void CheckStructCycle(StType type, List<StType> path)
