@@ -15,5 +15,6 @@ internal static class CommandCatalog
         yield return SheetsCommand.Create(io);
         yield return ImportCommand.Create(io);
         yield return DiffCommand.Create(io);
+        yield return VerifyCommand.Create(io);
     }
 }

@@ -29,7 +29,8 @@ internal static class Inputs
         return sources;
     }
 
-    private static SourceText ReadOne(string path)
+    /// <summary>Reads one file; a missing or unreadable one is a usage error.</summary>
+    public static SourceText ReadOne(string path)
     {
         try
         {

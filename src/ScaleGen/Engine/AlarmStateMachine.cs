@@ -80,6 +80,9 @@ public sealed class AlarmStateMachine
         return Active;
     }
 
+    /// <summary>A copy in the same state (the verifier follows both outcomes of a limit decision taken within REAL precision of an edge).</summary>
+    public AlarmStateMachine Clone() => (AlarmStateMachine)MemberwiseClone();
+
     public void Reset()
     {
         Condition = false;
