@@ -17,7 +17,7 @@ internal static class VerifyCommand
         var files = Inputs.FilesArgument();
         var st = new Option<string[]>("--st")
         {
-            Description = "Structured Text files to verify (library.st and plant.st as build writes them); without it, verify generates them",
+            Description = "Structured Text files to verify (library.st and plant.st as build writes them), or the PLCopen XML export (plant.xml); without it, verify generates them",
             AllowMultipleArgumentsPerToken = true,
         };
         var json = new Option<bool>("--json") { Description = "print { \"points\": [...], \"ok\": bool } instead of the table" };
@@ -32,10 +32,23 @@ internal static class VerifyCommand
         {
             var given = result.GetValue(st) ?? [];
             // Read the --st files before compiling, so a wrong path is a usage error whatever the plant says.
-            IReadOnlyList<SourceText>? texts = given.Length > 0 ? given.Select(Inputs.ReadOne).ToList() : null;
+            var read = given.Select(Inputs.ReadOne).ToList();
             var compilation = Inputs.CompileOrReport(io, result.GetValue(files)!);
             if (compilation is null) return ExitCodes.Failed;
-            texts ??= PlantVerifier.GenerateStructuredText(compilation);
+
+            // A PLCopen XML file given with --st is verified as the Structured Text it carries.
+            var texts = new List<SourceText>();
+            foreach (var file in read)
+            {
+                var (text, problem) = StructuredTextSources.From(file);
+                if (problem is not null)
+                {
+                    io.Error.WriteLine(problem.ToString());
+                    return ExitCodes.Failed;
+                }
+                texts.Add(text!);
+            }
+            if (texts.Count == 0) texts.AddRange(PlantVerifier.GenerateStructuredText(compilation));
 
             var verification = PlantVerifier.Verify(compilation.Plant, texts);
             if (result.GetValue(json))

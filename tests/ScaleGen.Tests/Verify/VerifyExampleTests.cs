@@ -73,6 +73,32 @@ public class VerifyExampleTests
     }
 
     [Fact]
+    public void The_PLCopen_export_is_verified_as_the_Structured_Text_it_carries()
+    {
+        using var folder = new TempFolder();
+        var output = folder.Combine("out");
+        var files = TestInputs.ExampleFiles.ToArray();
+        Assert.Equal(0, TestInputs.RunCli(["build", .. files, "-o", output, "--only", "plcopen"]).ExitCode);
+
+        var good = TestInputs.RunCli(["verify", .. files, "--st", Path.Combine(output, "plant.xml")]);
+        Assert.Equal(0, good.ExitCode);
+        Assert.Contains("all 27 points agree", good.Out, StringComparison.Ordinal);
+
+        // A setpoint edited by hand in the XML (FIT-101 H, the only 850.0) makes verify fail.
+        var xml = File.ReadAllText(Path.Combine(output, "plant.xml"));
+        var edited = folder.Write("edited.xml", xml.Replace("<simpleValue value=\"850.0\" />", "<simpleValue value=\"860.0\" />", StringComparison.Ordinal));
+        Assert.NotEqual(xml, File.ReadAllText(edited));
+        var bad = TestInputs.RunCli(["verify", .. files, "--st", edited]);
+        Assert.Equal(1, bad.ExitCode);
+        Assert.Contains("FIT-101", bad.Out, StringComparison.Ordinal);
+
+        var broken = folder.Write("broken.xml", "<?xml version=\"1.0\"?><project>");
+        var unreadable = TestInputs.RunCli(["verify", .. files, "--st", broken]);
+        Assert.Equal(1, unreadable.ExitCode);
+        Assert.Contains("broken.xml", unreadable.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void A_missing_st_file_is_a_usage_error()
     {
         var args = new List<string> { "verify" };
