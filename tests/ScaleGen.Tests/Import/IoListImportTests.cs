@@ -54,6 +54,25 @@ public class IoListImportTests
     }
 
     [Fact]
+    public void Example_io_list_round_trips_through_the_command_line_import_build_and_verify()
+    {
+        using var folder = new TempFolder();
+        var scale = folder.Combine("sludge.scale");
+        var cards = Path.Combine(TestInputs.ExamplesFolder, "cards.scale");
+
+        var import = TestInputs.RunCli("import", IoListFile, "--cards", cards, "-o", scale);
+        Assert.Equal(0, import.ExitCode);
+        var build = TestInputs.RunCli("build", cards, scale, "-o", folder.Combine("out"));
+        Assert.Equal(0, build.ExitCode);
+        Assert.True(File.Exists(folder.Combine("out", "plant.xml")));
+
+        // The generated code of all 200 imported points agrees with the reference model.
+        var verify = TestInputs.RunCli("verify", cards, scale, "--st", folder.Combine("out", "library.st"), folder.Combine("out", "plant.st"));
+        Assert.True(verify.ExitCode == 0, verify.Out + verify.Error);
+        Assert.Contains("all 200 points agree", verify.Out, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Imported_text_is_in_canonical_layout()
     {
         var text = IoListImporter.Import(IoListFile, File.ReadAllText(IoListFile), WithCards).Text!;
