@@ -183,8 +183,10 @@ public class BadInputTests
         Assert.Equal(Table.Count, Table.Select(r => r.Text).Distinct(StringComparer.Ordinal).Count());
         Assert.Equal(Table.Count, Table.Select(r => r.Name).Distinct(StringComparer.Ordinal).Count());
         // Every error code of the front end is hit by at least one row. SG1011 needs the
-        // scaling math: the engine's analysis reports it, and its tests cover it.
-        var errorCodes = DiagnosticCatalog.All.Where(d => d.Severity == Severity.Error).Select(d => d.Code)
+        // scaling math: the engine's analysis reports it, and its tests cover it. The SG3xxx
+        // codes belong to the I/O-list import, whose own tests cover them.
+        var errorCodes = DiagnosticCatalog.All.Where(d => d.Severity == Severity.Error && !d.Code.StartsWith("SG3", StringComparison.Ordinal))
+            .Select(d => d.Code)
             .Except(new[] { DiagnosticCatalog.SpanOutsideLimits.Code });
         Assert.Empty(errorCodes.Except(Table.Select(r => r.Code)));
     }
