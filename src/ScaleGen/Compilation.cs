@@ -31,7 +31,7 @@ public sealed class Compilation
     public static Compilation Compile(IReadOnlyList<SourceText> sources)
     {
         var diagnostics = new DiagnosticBag();
-        var units = sources.Select(s => SyntaxParser.Parse(s, diagnostics)).ToImmutableArray();
+        var units = SyntaxParser.ParseAll(sources, diagnostics);
         var plant = Binder.Bind(units, diagnostics);
         Engine.PlantAnalyzer.Analyze(plant, diagnostics);
         return new Compilation(units, plant, diagnostics.ToSortedList(sources));

@@ -116,7 +116,7 @@ public sealed class Binder
 
         var type = RawType.INT;
         if (settings.TryGetValue("type", out var typeSetting) && typeSetting.Statement is RawTypeSyntax typeSyntax)
-            type = Choice(typeSyntax.Type, source, "a raw type", new[] { "INT", "DINT", "UINT" }) switch
+            type = Choice(typeSyntax.Type, source, "a raw type", RawTypeWords) switch
             {
                 "DINT" => RawType.DINT,
                 "UINT" => RawType.UINT,
@@ -233,7 +233,12 @@ public sealed class Binder
     private static bool IsWhole(double value) => Math.Floor(value) == value;
 
     /// <summary>True when the parser already reported a statement of this block.</summary>
-    private static bool HasBrokenStatements(BlockSyntax block) => block.Statements.Any(s => s is ErrorStatementSyntax);
+    private static bool HasBrokenStatements(BlockSyntax block)
+    {
+        foreach (var statement in block.Statements)
+            if (statement is ErrorStatementSyntax) return true;
+        return false;
+    }
 
     // ---- Profiles and settings ---------------------------------------------------------
 
@@ -243,9 +248,9 @@ public sealed class Binder
     /// <summary>The settings a point ends up with after its profiles: later ones override earlier ones.</summary>
     private sealed class Settings
     {
-        public Dictionary<string, Setting> Single { get; } = new(StringComparer.Ordinal);
-        public Dictionary<string, (AlarmSyntax Alarm, SourceText Source)> Alarms { get; } = new(StringComparer.Ordinal);
-        public Dictionary<string, Setting> Loop { get; } = new(StringComparer.Ordinal);
+        public Dictionary<string, Setting> Single { get; }
+        public Dictionary<string, (AlarmSyntax Alarm, SourceText Source)> Alarms { get; }
+        public Dictionary<string, Setting> Loop { get; }
         public Setting? LoopBlock { get; set; }
 
         /// <summary>
@@ -258,14 +263,25 @@ public sealed class Binder
         /// <summary>Like <see cref="Incomplete"/>, for the loop block.</summary>
         public bool LoopIncomplete { get; set; }
 
-        public Settings Copy()
+        public Settings()
         {
-            var copy = new Settings { LoopBlock = LoopBlock, Incomplete = Incomplete, LoopIncomplete = LoopIncomplete };
-            foreach (var (k, v) in Single) copy.Single[k] = v;
-            foreach (var (k, v) in Alarms) copy.Alarms[k] = v;
-            foreach (var (k, v) in Loop) copy.Loop[k] = v;
-            return copy;
+            Single = new(StringComparer.Ordinal);
+            Alarms = new(StringComparer.Ordinal);
+            Loop = new(StringComparer.Ordinal);
         }
+
+        private Settings(Settings other)
+        {
+            // The copy constructors keep the order of entries and copy the tables whole.
+            Single = new(other.Single, StringComparer.Ordinal);
+            Alarms = new(other.Alarms, StringComparer.Ordinal);
+            Loop = new(other.Loop, StringComparer.Ordinal);
+            LoopBlock = other.LoopBlock;
+            Incomplete = other.Incomplete;
+            LoopIncomplete = other.LoopIncomplete;
+        }
+
+        public Settings Copy() => new(this);
     }
 
     private Dictionary<string, Setting> CollectUnique(ImmutableArray<StatementSyntax> statements, SourceText source)
@@ -301,8 +317,9 @@ public sealed class Binder
         }
 
         var seen = new Dictionary<string, AlarmSyntax>(StringComparer.Ordinal);
-        foreach (var alarm in block.Statements.OfType<AlarmSyntax>())
+        foreach (var statement in block.Statements)
         {
+            if (statement is not AlarmSyntax alarm) continue;
             var kind = alarm.Kind.Text;
             if (seen.TryGetValue(kind, out var first))
             {
@@ -569,7 +586,7 @@ public sealed class Binder
                     else health = new Health(HealthKind.Custom, low, high);
                     break;
                 default:
-                    Choice(healthSyntax.Mode, healthSetting.Source, "a health mode", new[] { "ne43", "none", "below", "above" });
+                    Choice(healthSyntax.Mode, healthSetting.Source, "a health mode", HealthWords);
                     ok = false;
                     break;
             }
@@ -582,7 +599,7 @@ public sealed class Binder
         var onFault = FaultAction.Hold;
         if (s.TryGetValue("on-fault", out var faultSetting) && faultSetting.Statement is OnFaultSyntax faultSyntax)
         {
-            switch (Choice(faultSyntax.Action, faultSetting.Source, "an on-fault action", new[] { "hold", "low", "high", "value" }))
+            switch (Choice(faultSyntax.Action, faultSetting.Source, "an on-fault action", FaultActionWords))
             {
                 case "low": onFault = new FaultAction(FaultActionKind.Low); break;
                 case "high": onFault = new FaultAction(FaultActionKind.High); break;
@@ -616,9 +633,9 @@ public sealed class Binder
         var measure = MeasureKind.Other;
         if (s.TryGetValue("measure", out var measureSetting) && measureSetting.Statement is MeasureSyntax measureSyntax)
         {
-            var word = Choice(measureSyntax.Kind, measureSetting.Source, "a measure kind", new[] { "flow", "level", "pressure", "temperature", "analysis", "other" });
+            var word = Choice(measureSyntax.Kind, measureSetting.Source, "a measure kind", MeasureWords);
             if (word is null) ok = false;
-            else measure = Enum.Parse<MeasureKind>(word, ignoreCase: true);
+            else measure = (MeasureKind)Array.IndexOf(MeasureWords, word);
         }
 
         // Tolerance
@@ -667,29 +684,31 @@ public sealed class Binder
     {
         var alarms = ImmutableArray.CreateBuilder<Alarm>();
         var byKind = new Dictionary<AlarmKind, (Alarm Alarm, AlarmSyntax Syntax, SourceText Source)>();
-        foreach (var (syntax, source) in settings.Alarms.Values.OrderBy(a => KindOrder(a.Alarm.Kind.Text)))
+        foreach (var (syntax, source) in AlarmsInKindOrder(settings))
         {
-            var kindWord = Choice(syntax.Kind, source, "an alarm kind", new[] { "HH", "H", "L", "LL" });
+            var kindWord = Choice(syntax.Kind, source, "an alarm kind", AlarmKindWords);
             if (kindWord is null)
             {
                 ok = false;
                 continue;
             }
-            var kind = Enum.Parse<AlarmKind>(kindWord);
+            var kind = (AlarmKind)Array.IndexOf(AlarmKindWords, kindWord);
             var setpoint = syntax.Setpoint.Value;
             double deadband = 0, onDelay = 0, offDelay = 0;
             var priority = 3;
             string? message = null;
-            var seenOptions = new HashSet<string>(StringComparer.Ordinal);
+            var seenOptions = 0; // one bit per option word: an alarm has at most five options
 
             foreach (var option in syntax.Options)
             {
-                if (!seenOptions.Add(option.Name.Text))
+                var bit = 1 << Array.IndexOf(AlarmOptionWords, option.Name.Text);
+                if ((seenOptions & bit) != 0)
                 {
                     Report(DiagnosticCatalog.DuplicateSetting, source, option.Name.Span, $"'{option.Name.Text}' is given twice on this alarm: keep one");
                     ok = false;
                     continue;
                 }
+                seenOptions |= bit;
                 switch (option.Name.Text)
                 {
                     case "priority":
@@ -772,7 +791,27 @@ public sealed class Binder
         return alarms.ToImmutable();
     }
 
-    private static int KindOrder(string kind) => kind switch { "HH" => 0, "H" => 1, "L" => 2, "LL" => 3, _ => 4 };
+    /// <summary>HH, H, L, LL, then words that are no alarm kind (reported when bound) in the order written.</summary>
+    private static IEnumerable<(AlarmSyntax Alarm, SourceText Source)> AlarmsInKindOrder(Settings settings)
+    {
+        var alarms = settings.Alarms;
+        if (alarms.Count == 0) return [];
+        var ordered = new List<(AlarmSyntax, SourceText)>(alarms.Count);
+        foreach (var kind in AlarmKindWords)
+            if (alarms.TryGetValue(kind, out var alarm)) ordered.Add(alarm);
+        if (ordered.Count < alarms.Count)
+            foreach (var (kind, alarm) in alarms)
+                if (Array.IndexOf(AlarmKindWords, kind) < 0) ordered.Add(alarm);
+        return ordered;
+    }
+
+    // The words of each choice, in the order of the model's enums where there is one.
+    private static readonly string[] AlarmKindWords = { "HH", "H", "L", "LL" };
+    private static readonly string[] AlarmOptionWords = { "priority", "deadband", "delay", "clear", "text" };
+    private static readonly string[] MeasureWords = { "flow", "level", "pressure", "temperature", "analysis", "other" };
+    private static readonly string[] RawTypeWords = { "INT", "DINT", "UINT" };
+    private static readonly string[] HealthWords = { "ne43", "none", "below", "above" };
+    private static readonly string[] FaultActionWords = { "hold", "low", "high", "value" };
 
     private LoopSpec? BindLoop(Settings settings, ref bool ok)
     {

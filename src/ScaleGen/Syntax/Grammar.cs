@@ -1,7 +1,4 @@
 using System.Collections.Immutable;
-using System.Globalization;
-using System.Text;
-using System.Text.RegularExpressions;
 using Sprache;
 using ScaleGen.Text;
 
@@ -12,240 +9,398 @@ namespace ScaleGen.Syntax;
 /// <see cref="StatementScanner"/> finds their bounds), dispatched on the keyword, so no
 /// statement parser ever backtracks across another's keyword.
 /// </summary>
+/// <remarks>
+/// Speed (docs/performance.md): Sprache's character parsers allocate an input and a result
+/// for every character, which made reading a large plant many times slower than reading
+/// the same points as JSON. The tokens (words, numbers, strings, units, blanks) are
+/// therefore hand-written parsers that scan the text directly and allocate once per token;
+/// Sprache combines tokens into statements. Every statement parser is built once, when
+/// this class is loaded, and never per statement. Where a token fails is where the
+/// Sprache version failed, so diagnostics point at the same place.
+/// </remarks>
 internal static class Grammar
 {
     /// <summary>A failure message that starts with a code names a specific diagnostic.</summary>
     internal const string NotANumberMarker = "SG0013:";
 
-    private static readonly Parser<string> Blank = Parse.Chars(' ', '\t').Many().Text();
+    // ---- Reading the text -------------------------------------------------------------
 
-    private static Parser<T> Token<T>(this Parser<T> parser) =>
-        from value in parser
-        from _ in Blank
-        select value;
+    /// <summary>Where the statement being parsed ends (exclusive).</summary>
+    private static int EndOf(IInput input) => input is SourceInput statement ? statement.End : input.Source.Length;
 
-    /// <summary>Runs a parser and reports the span it consumed (before trailing blanks).</summary>
-    private static Parser<(T Value, TextSpan Span)> Spanned<T>(this Parser<T> parser) => input =>
+    /// <summary>The same input, moved on to an absolute position.</summary>
+    private static IInput MoveTo(IInput input, int position)
+    {
+        if (input is SourceInput statement) return statement.At(position);
+        var rest = input;
+        while (rest.Position < position) rest = rest.Advance();
+        return rest;
+    }
+
+    private static IResult<T> Fail<T>(IInput input, int position, string message, string[] expected) =>
+        Result.Failure<T>(position == input.Position ? input : MoveTo(input, position), message, expected);
+
+    // What a failing token expected, made once: failures are common (every optional unit that
+    // is not there is one), and Sprache keeps the array with the failure.
+    private static readonly string[] ExpectedNumber = { "number" };
+    private static readonly string[] ExpectedString = { "a \"quoted string\"" };
+    private static readonly string[] ExpectedUnit = { "unit" };
+
+    /// <summary>A parser followed by blanks (spaces and tabs), which it skips.</summary>
+    private static Parser<T> Token<T>(this Parser<T> parser) => input =>
     {
         var result = parser(input);
-        return result.WasSuccessful
-            ? Result.Success((result.Value, TextSpan.FromBounds(input.Position, result.Remainder.Position)), result.Remainder)
-            : Result.Failure<(T, TextSpan)>(result.Remainder, result.Message, result.Expectations);
+        if (!result.WasSuccessful) return result;
+        var rest = result.Remainder;
+        var next = Tokens.SkipBlanks(rest.Source, rest.Position, EndOf(rest));
+        return next == rest.Position ? result : Result.Success(result.Value, MoveTo(rest, next));
     };
 
-    // ---- Tokens ---------------------------------------------------------------------
+    // ---- Tokens: Sprache parsers over the scanning functions of Tokens ------------------
 
-    internal static readonly Parser<WordSyntax> Word =
-        (from first in Parse.Letter
-         from rest in Parse.LetterOrDigit.Or(Parse.Chars('_', '-')).Many().Text()
-         select first + rest)
-        .Spanned()
-        .Select(w => new WordSyntax(w.Span, w.Value))
-        .Token();
+    /// <summary>A letter, then letters, digits, '_' and '-'; blanks after it are skipped.</summary>
+    internal static readonly Parser<WordSyntax> Word = WordToken("word");
 
-    private static Parser<WordSyntax> Keyword(string text) =>
-        Word.Where(w => w.Text == text).Named($"'{text}'");
+    /// <summary>A word; <paramref name="expected"/> names what a failure expected.</summary>
+    private static Parser<WordSyntax> WordToken(string expected) => WordToken(new[] { expected });
 
-    private static readonly Regex NumberPattern = new(@"\G-?[0-9]+(\.[0-9]+)?([eE][+-]?[0-9]+)?", RegexOptions.Compiled | RegexOptions.CultureInvariant);
-    private static readonly Regex NotANumberPattern = new(@"\G-?(NaN|nan|Infinity|infinity|inf|Inf|INF|∞)", RegexOptions.Compiled | RegexOptions.CultureInvariant);
-
-    /// <summary>Numbers are always written with a '.'; the machine's culture plays no part.</summary>
-    internal static readonly Parser<NumberSyntax> Number = input =>
+    private static Parser<WordSyntax> WordToken(string[] expected) => input =>
     {
         var text = input.Source;
         var start = input.Position;
-        var invalid = NotANumberPattern.Match(text, start);
-        if (invalid.Success && invalid.Index == start)
-            return Result.Failure<NumberSyntax>(input, $"{NotANumberMarker}'{invalid.Value}' is not a number: write a finite decimal number such as 0 or 450.5", new[] { "number" });
-        var match = NumberPattern.Match(text, start);
-        if (!match.Success || match.Index != start || start + match.Length > EndOf(input))
-            return Result.Failure<NumberSyntax>(input, "expected a number", new[] { "number" });
-        var end = start + match.Length;
-        if (end < EndOf(input) && match.Value.TrimStart('-') == "0" && text[end] is 'x' or 'X')
-            return Result.Failure<NumberSyntax>(input, $"{NotANumberMarker}hexadecimal numbers are not allowed: write the value in decimal", new[] { "number" });
-        var value = double.Parse(match.Value, NumberStyles.Float, CultureInfo.InvariantCulture);
-        if (!double.IsFinite(value))
-            return Result.Failure<NumberSyntax>(input, $"{NotANumberMarker}'{match.Value}' is too large for a number: use a value within ±1.7e308", new[] { "number" });
-        IInput rest = input is SourceInput statement ? statement.At(end) : input;
-        while (rest.Position < end) rest = rest.Advance();
-        return Result.Success(new NumberSyntax(new TextSpan(start, match.Length), value, match.Value), rest);
+        var end = EndOf(input);
+        var stop = Tokens.ScanWord(text, start, end);
+        if (stop == start) return Fail<WordSyntax>(input, start, "expected a word", expected);
+        var word = new WordSyntax(new TextSpan(start, stop - start), Words.Get(text, start, stop - start));
+        return Result.Success(word, MoveTo(input, Tokens.SkipBlanks(text, stop, end)));
     };
 
-    private static int EndOf(IInput input) => input is SourceInput statement ? statement.End : input.Source.Length;
-
-    private static readonly Parser<NumberSyntax> NumberToken = Number.Token();
-
-    private static readonly Parser<StringSyntax> QuotedString =
-        (from open in Parse.Char('"')
-         from content in Parse.Char('\\').Then(_ => Parse.AnyChar.Select(c => "\\" + c))
-             .Or(Parse.CharExcept("\"\\\r\n").Many().Text().Where(s => s.Length > 0))
-             .Many()
-         from close in Parse.Char('"')
-         select Unescape(string.Concat(content)))
-        .Spanned()
-        .Select(s => new StringSyntax(s.Span, s.Value))
-        .Token()
-        .Named("a \"quoted string\"");
-
-    /// <summary>\" and \\ are the escapes; any other backslash is kept as written (the binder reports it).</summary>
-    private static string Unescape(string raw)
+    /// <summary>One of the given words; any other word fails where it starts.</summary>
+    private static Parser<WordSyntax> OneOf(string expected, params string[] words)
     {
-        if (!raw.Contains('\\')) return raw;
-        var builder = new StringBuilder(raw.Length);
-        for (var i = 0; i < raw.Length; i++)
+        var expectations = new[] { expected };
+        var word = WordToken(expectations);
+        return input =>
         {
-            if (raw[i] == '\\' && i + 1 < raw.Length && raw[i + 1] is '"' or '\\')
-            {
-                builder.Append(raw[i + 1]);
-                i++;
-            }
-            else builder.Append(raw[i]);
-        }
-        return builder.ToString();
+            var result = word(input);
+            if (result.WasSuccessful && Array.IndexOf(words, result.Value.Text) < 0)
+                return Fail<WordSyntax>(input, input.Position, "unexpected word", expectations);
+            return result;
+        };
     }
+
+    private static Parser<WordSyntax> Keyword(string text) => OneOf($"'{text}'", text);
+
+    /// <summary>
+    /// A number and the blanks after it. NaN, Infinity, hex and numbers too large for a
+    /// double fail with <see cref="NotANumberMarker"/>, so they get their own diagnostic.
+    /// </summary>
+    private static readonly Parser<NumberSyntax> NumberToken = input =>
+    {
+        var text = input.Source;
+        var start = input.Position;
+        var end = EndOf(input);
+        switch (Tokens.ScanNumber(text, start, end, out var stop, out var value, out var problem))
+        {
+            case Tokens.NumberScan.NotANumber:
+                return Fail<NumberSyntax>(input, start, NotANumberMarker + problem, ExpectedNumber);
+            case Tokens.NumberScan.None:
+                return Fail<NumberSyntax>(input, start, "expected a number", ExpectedNumber);
+        }
+        var number = new NumberSyntax(new TextSpan(start, stop - start), value, Words.Get(text, start, stop - start));
+        return Result.Success(number, MoveTo(input, Tokens.SkipBlanks(text, stop, end)));
+    };
+
+    /// <summary>A double-quoted string and the blanks after it. An unclosed string fails where the closing quote should be.</summary>
+    private static readonly Parser<StringSyntax> QuotedString = input =>
+    {
+        var text = input.Source;
+        var start = input.Position;
+        var end = EndOf(input);
+        if (!Tokens.ScanString(text, start, end, out var stop))
+            return Fail<StringSyntax>(input, stop, stop == start ? "expected a quoted string" : "expected '\"'", ExpectedString);
+        return Result.Success(new StringSyntax(TextSpan.FromBounds(start, stop), Tokens.StringValue(text, start, stop)),
+            MoveTo(input, Tokens.SkipBlanks(text, stop, end)));
+    };
 
     /// <summary>
     /// A unit: any run of characters but white space, braces, '#', ';' and '"', or a quoted
     /// string. It may not start like a number or like '..', and words that the statement
     /// itself uses as keywords are never taken as a unit.
     /// </summary>
-    private static Parser<UnitSyntax> Unit(params string[] notUnits) =>
-        QuotedString.Select(s => new UnitSyntax(s.Span, s.Value, true))
-        .Or((from first in Parse.Char(c => !char.IsWhiteSpace(c) && !char.IsControl(c) && !char.IsDigit(c) && "{}#;\".,-+".IndexOf(c) < 0, "unit")
-             from rest in Parse.Char(c => !char.IsWhiteSpace(c) && !char.IsControl(c) && "{}#;\"".IndexOf(c) < 0, "unit").Many().Text()
-             select first + rest)
-            .Spanned()
-            .Where(u => Array.IndexOf(notUnits, u.Value) < 0)
-            .Select(u => new UnitSyntax(u.Span, u.Value, false))
-            .Token());
+    private static Parser<UnitSyntax> Unit(params string[] notUnits) => input =>
+    {
+        var text = input.Source;
+        var start = input.Position;
+        var end = EndOf(input);
+        if (start < end && text[start] == '"')
+        {
+            var quoted = QuotedString(input);
+            return quoted.WasSuccessful
+                ? Result.Success(new UnitSyntax(quoted.Value.Span, quoted.Value.Value, true), quoted.Remainder)
+                : Result.Failure<UnitSyntax>(quoted.Remainder, quoted.Message, quoted.Expectations);
+        }
+        var stop = Tokens.ScanUnitWord(text, start, end);
+        if (stop == start) return Fail<UnitSyntax>(input, start, "expected a unit", ExpectedUnit);
+        var unit = Words.Get(text, start, stop - start);
+        if (Array.IndexOf(notUnits, unit) >= 0) return Fail<UnitSyntax>(input, start, "a keyword of the statement, not a unit", ExpectedUnit);
+        return Result.Success(new UnitSyntax(new TextSpan(start, stop - start), unit, false), MoveTo(input, Tokens.SkipBlanks(text, stop, end)));
+    };
+
+    /// <summary>Fixed text such as '..'; fails at the first character that differs. Blanks after it are skipped.</summary>
+    private static Parser<string> Literal(string literal)
+    {
+        var expected = new[] { $"'{literal}'" };
+        var message = $"expected '{literal}'";
+        return input =>
+        {
+            var text = input.Source;
+            var i = input.Position;
+            var end = EndOf(input);
+            foreach (var c in literal)
+            {
+                if (i >= end || text[i] != c) return Fail<string>(input, i, message, expected);
+                i++;
+            }
+            return Result.Success(literal, MoveTo(input, Tokens.SkipBlanks(text, i, end)));
+        };
+    }
+
+    private static readonly Parser<string> Dots = Literal("..");
 
     private static Parser<QuantitySyntax> Quantity(params string[] notUnits) =>
-        from number in NumberToken
-        from unit in Unit(notUnits).Optional()
-        select new QuantitySyntax(
-            TextSpan.FromBounds(number.Span.Start, unit.IsDefined ? unit.Get().Span.End : number.Span.End),
-            number, unit.GetOrDefault());
+        NumberToken.Then(Unit(notUnits).Maybe(), (number, unit) =>
+            new QuantitySyntax(TextSpan.FromBounds(number.Span.Start, unit?.Span.End ?? number.Span.End), number, unit));
 
     private static Parser<RangeSyntax> Range(params string[] notUnits) =>
-        from low in NumberToken
-        from dots in Parse.String("..").Token().Named("'..'")
-        from high in NumberToken
-        from unit in Unit(notUnits).Optional()
-        select new RangeSyntax(
-            TextSpan.FromBounds(low.Span.Start, unit.IsDefined ? unit.Get().Span.End : high.Span.End),
-            low, high, unit.GetOrDefault());
+        NumberToken.Then(Dots, NumberToken, Unit(notUnits).Maybe(), (low, _, high, unit) =>
+            new RangeSyntax(TextSpan.FromBounds(low.Span.Start, unit?.Span.End ?? high.Span.End), low, high, unit));
 
     // ---- Statements -----------------------------------------------------------------
 
-    /// <summary>How one keyword's statement is parsed, and what it must look like.</summary>
-    internal sealed record StatementRule(string Keyword, Func<WordSyntax, Parser<StatementSyntax>> Arguments, string Usage, bool HasBlock = false);
+    /// <summary>
+    /// How one keyword's statement is parsed, and what it must look like. <see cref="Arguments"/>
+    /// reads what follows the keyword and returns how to make the statement from the keyword;
+    /// it is the grammar, and it reports every error. <see cref="Direct"/> reads the same
+    /// statement through a <see cref="FastReader"/>, or gives up with null (see there).
+    /// </summary>
+    internal sealed record StatementRule(string Keyword, Parser<Func<WordSyntax, StatementSyntax>> Arguments,
+        Func<FastReader, WordSyntax, StatementSyntax?> Direct, string Usage, bool HasBlock = false);
 
-    private static StatementRule Rule<T>(string keyword, string usage, Func<WordSyntax, Parser<T>> arguments, bool hasBlock = false)
+    private static StatementRule Rule<T>(string keyword, string usage, Parser<Func<WordSyntax, T>> arguments,
+        Func<FastReader, WordSyntax, T?> direct, bool hasBlock = false)
         where T : StatementSyntax =>
-        new(keyword, k => arguments(k).Select(s => (StatementSyntax)s), usage, hasBlock);
+        new(keyword, arguments, direct, usage, hasBlock);
+
+    /// <summary>Gives a statement's constructor its type, so the grammar's lambdas infer.</summary>
+    private static Func<WordSyntax, T> Make<T>(Func<WordSyntax, T> make) => make;
 
     private static TextSpan Through(WordSyntax keyword, SyntaxNode? last) =>
         TextSpan.FromBounds(keyword.Span.Start, last?.Span.End ?? keyword.Span.End);
 
-    private static Parser<QuantitySettingSyntax> QuantitySetting(WordSyntax k) =>
-        Quantity().Select(q => new QuantitySettingSyntax(Through(k, q), k, q));
+    private static readonly string[] NoWords = [];
 
-    private static Parser<RangeSettingSyntax> RangeSetting(WordSyntax k) =>
-        Range().Select(r => new RangeSettingSyntax(Through(k, r), k, r));
+    private static readonly Parser<Func<WordSyntax, QuantitySettingSyntax>> QuantitySetting =
+        Quantity().Map(q => Make(k => new QuantitySettingSyntax(Through(k, q), k, q)));
 
-    private static Parser<WordSyntax> DeclarationName => Word.Named("a name");
+    private static QuantitySettingSyntax? DirectQuantitySetting(FastReader r, WordSyntax k) =>
+        r.Quantity(NoWords) is { } q ? new QuantitySettingSyntax(Through(k, q), k, q) : null;
+
+    private static readonly Parser<Func<WordSyntax, RangeSettingSyntax>> RangeSetting =
+        Range().Map(r => Make(k => new RangeSettingSyntax(Through(k, r), k, r)));
+
+    private static RangeSettingSyntax? DirectRangeSetting(FastReader r, WordSyntax k) =>
+        r.Range(NoWords) is { } range ? new RangeSettingSyntax(Through(k, range), k, range) : null;
+
+    private static readonly Parser<WordSyntax> DeclarationName = WordToken("a name");
+
+    private static readonly Parser<WordSyntax?> UsesClause = Keyword("uses").Then(DeclarationName, (_, name) => name).Maybe();
+
+    /// <summary>A name, and the profile after 'uses' if there is one. False when the clause is broken.</summary>
+    private static bool DirectNameAndUses(FastReader r, out WordSyntax name, out WordSyntax? uses)
+    {
+        uses = null;
+        name = r.Word()!;
+        if (name is null) return false;
+        if (r.AtEnd) return true;
+        return r.Keyword("uses") is not null && (uses = r.Word()) is not null;
+    }
 
     private static readonly string[] AlarmOptionWords = { "priority", "deadband", "delay", "clear", "text" };
 
+    private static readonly Parser<(QuantitySyntax? Quantity, StringSyntax? Text, int End)> AlarmText =
+        QuotedString.Map(s => ((QuantitySyntax?)null, (StringSyntax?)s, s.Span.End));
+
+    private static readonly Parser<(QuantitySyntax? Quantity, StringSyntax? Text, int End)> AlarmQuantity =
+        Quantity(AlarmOptionWords).Map(q => ((QuantitySyntax?)q, (StringSyntax?)null, q.Span.End));
+
     private static readonly Parser<AlarmOptionSyntax> AlarmOption =
-        (from name in Word.Where(w => Array.IndexOf(AlarmOptionWords, w.Text) >= 0).Named("priority, deadband, delay, clear or text")
-         from value in name.Text == "text"
-             ? QuotedString.Select(s => (Q: (QuantitySyntax?)null, S: (StringSyntax?)s, End: s.Span.End))
-             : Quantity(AlarmOptionWords).Select(q => (Q: (QuantitySyntax?)q, S: (StringSyntax?)null, End: q.Span.End))
-         select new AlarmOptionSyntax(TextSpan.FromBounds(name.Span.Start, value.End), name, value.Q, value.S));
+        OneOf("priority, deadband, delay, clear or text", AlarmOptionWords).Then(
+            name => name.Text == "text" ? AlarmText : AlarmQuantity,
+            (name, value) => new AlarmOptionSyntax(TextSpan.FromBounds(name.Span.Start, value.End), name, value.Quantity, value.Text));
+
+    private static AlarmSyntax? DirectAlarm(FastReader r, WordSyntax k)
+    {
+        if (r.Word() is not { } kind || r.Number() is not { } setpoint) return null;
+        ImmutableArray<AlarmOptionSyntax>.Builder? options = null;
+        while (!r.AtEnd)
+        {
+            if (r.Word() is not { } name || Array.IndexOf(AlarmOptionWords, name.Text) < 0) return null;
+            AlarmOptionSyntax option;
+            if (name.Text == "text")
+            {
+                if (r.String() is not { } text) return null;
+                option = new AlarmOptionSyntax(TextSpan.FromBounds(name.Span.Start, text.Span.End), name, null, text);
+            }
+            else
+            {
+                if (r.Quantity(AlarmOptionWords) is not { } quantity) return null;
+                option = new AlarmOptionSyntax(TextSpan.FromBounds(name.Span.Start, quantity.Span.End), name, quantity, null);
+            }
+            (options ??= ImmutableArray.CreateBuilder<AlarmOptionSyntax>()).Add(option);
+        }
+        var list = options is null ? ImmutableArray<AlarmOptionSyntax>.Empty : options.ToImmutable();
+        return new AlarmSyntax(Through(k, list.Length > 0 ? list[^1] : setpoint), k, kind, setpoint, list);
+    }
+
+    private static HealthSyntax? DirectHealth(FastReader r, WordSyntax k)
+    {
+        if (r.Word() is not { } mode) return null;
+        switch (mode.Text)
+        {
+            case "below":
+                if (r.Quantity(AboveWord) is not { } low) return null;
+                QuantitySyntax? high = null;
+                if (!r.AtEnd && (r.Keyword("above") is null || (high = r.Quantity(NoWords)) is null)) return null;
+                return new HealthSyntax(Through(k, high ?? low), k, mode, low, high);
+            case "above":
+                return r.Quantity(NoWords) is { } above ? new HealthSyntax(Through(k, above), k, mode, null, above) : null;
+            default:
+                return new HealthSyntax(Through(k, mode), k, mode, null, null);
+        }
+    }
+
+    private static readonly string[] AboveWord = { "above" };
+
+    private static readonly Parser<NumberSyntax?> OnFaultValue = NumberToken;
+
+    private static readonly Parser<NumberSyntax?> NoValue = Parse.Return((NumberSyntax?)null);
 
     public static readonly IReadOnlyDictionary<string, StatementRule> TopLevel = Rules(
         Rule("plant", "plant \"Title of the plant\"",
-            k => QuotedString.Select(s => new PlantTitleSyntax(Through(k, s), k, s))),
+            QuotedString.Map(s => Make(k => new PlantTitleSyntax(Through(k, s), k, s))),
+            (r, k) => r.String() is { } s ? new PlantTitleSyntax(Through(k, s), k, s) : null),
         Rule("cycle", "cycle 100 ms",
-            k => Quantity().Select(q => new CycleSyntax(Through(k, q), k, q))),
+            Quantity().Map(q => Make(k => new CycleSyntax(Through(k, q), k, q))),
+            (r, k) => r.Quantity(NoWords) is { } q ? new CycleSyntax(Through(k, q), k, q) : null),
         Rule("card", "card NAME { ... }",
-            k => DeclarationName.Select(n => new CardSyntax(Through(k, n), k, n, BlockSyntax.Empty(default))), hasBlock: true),
+            DeclarationName.Map(n => Make(k => new CardSyntax(Through(k, n), k, n, BlockSyntax.Empty(default)))),
+            (r, k) => r.Word() is { } n ? new CardSyntax(Through(k, n), k, n, BlockSyntax.Empty(default)) : null, hasBlock: true),
         Rule("profile", "profile NAME [uses PROFILE] { ... }",
-            k => from n in DeclarationName
-                 from u in Keyword("uses").Then(_ => DeclarationName).Optional()
-                 select new ProfileSyntax(Through(k, u.GetOrDefault() ?? n), k, n, u.GetOrDefault(), BlockSyntax.Empty(default)), hasBlock: true),
+            DeclarationName.Then(UsesClause, (n, u) => Make(k => new ProfileSyntax(Through(k, u ?? n), k, n, u, BlockSyntax.Empty(default)))),
+            (r, k) => DirectNameAndUses(r, out var n, out var u) ? new ProfileSyntax(Through(k, u ?? n), k, n, u, BlockSyntax.Empty(default)) : null,
+            hasBlock: true),
         Rule("point", "point TAG [uses PROFILE] { ... }",
-            k => from n in DeclarationName
-                 from u in Keyword("uses").Then(_ => DeclarationName).Optional()
-                 select new PointSyntax(Through(k, u.GetOrDefault() ?? n), k, n, u.GetOrDefault(), BlockSyntax.Empty(default)), hasBlock: true));
+            DeclarationName.Then(UsesClause, (n, u) => Make(k => new PointSyntax(Through(k, u ?? n), k, n, u, BlockSyntax.Empty(default)))),
+            (r, k) => DirectNameAndUses(r, out var n, out var u) ? new PointSyntax(Through(k, u ?? n), k, n, u, BlockSyntax.Empty(default)) : null,
+            hasBlock: true));
+
+    private static readonly string[] AtWord = { "at" };
 
     public static readonly IReadOnlyDictionary<string, StatementRule> CardBody = Rules(
         Rule("counts", "counts 0 .. 27648 at 4 .. 20 mA",
-            k => from raw in Range("at")
-                 from at in Keyword("at")
-                 from electrical in Range()
-                 select new CountsSyntax(Through(k, electrical), k, raw, electrical)),
+            Range("at").Then(Keyword("at"), Range(), (raw, _, electrical) => Make(k => new CountsSyntax(Through(k, electrical), k, raw, electrical))),
+            (r, k) => r.Range(AtWord) is { } raw && r.Keyword("at") is not null && r.Range(NoWords) is { } electrical
+                ? new CountsSyntax(Through(k, electrical), k, raw, electrical) : null),
         Rule("limits", "limits -4864 .. 32511",
-            k => Range().Select(r => new LimitsSyntax(Through(k, r), k, r))),
+            Range().Map(r => Make(k => new LimitsSyntax(Through(k, r), k, r))),
+            (r, k) => r.Range(NoWords) is { } range ? new LimitsSyntax(Through(k, range), k, range) : null),
         Rule("fault-code", "fault-code 32767[, 32767...]",
-            k => NumberToken.DelimitedBy(Parse.Char(',').Token())
-                 .Select(codes => new FaultCodeSyntax(Through(k, codes.Last()), k, codes.ToImmutableArray()))),
+            NumberToken.DelimitedBy(Parse.Char(',').Token())
+                .Map(codes => codes.ToImmutableArray())
+                .Map(codes => Make(k => new FaultCodeSyntax(Through(k, codes[^1]), k, codes))),
+            (r, k) =>
+            {
+                var codes = ImmutableArray.CreateBuilder<NumberSyntax>();
+                do
+                {
+                    if (r.Number() is not { } code) return null;
+                    codes.Add(code);
+                } while (r.Literal(","));
+                return new FaultCodeSyntax(Through(k, codes[^1]), k, codes.ToImmutable());
+            }),
         Rule("type", "type INT|DINT|UINT",
-            k => Word.Select(w => new RawTypeSyntax(Through(k, w), k, w))),
-        Rule("input", "input 250 ohm", QuantitySetting));
+            Word.Map(w => Make(k => new RawTypeSyntax(Through(k, w), k, w))),
+            (r, k) => r.Word() is { } w ? new RawTypeSyntax(Through(k, w), k, w) : null),
+        Rule("input", "input 250 ohm", QuantitySetting, DirectQuantitySetting));
 
     public static readonly IReadOnlyDictionary<string, StatementRule> PointBody = Rules(
         Rule("desc", "desc \"Raw water inlet flow\"",
-            k => QuotedString.Select(s => new DescriptionSyntax(Through(k, s), k, s))),
+            QuotedString.Map(s => Make(k => new DescriptionSyntax(Through(k, s), k, s))),
+            (r, k) => r.String() is { } s ? new DescriptionSyntax(Through(k, s), k, s) : null),
         Rule("card", "card AI16 at \"R1.S2.C0\"",
-            k => from card in DeclarationName
-                 from address in Keyword("at").Then(_ => QuotedString).Optional()
-                 select new CardReferenceSyntax(Through(k, (SyntaxNode?)address.GetOrDefault() ?? card), k, card, address.GetOrDefault())),
-        Rule("signal", "signal 4 .. 20 mA", RangeSetting),
-        Rule("shunt", "shunt 250 ohm", QuantitySetting),
-        Rule("range", "range 0 .. 450 m3/h", RangeSetting),
+            DeclarationName.Then(Keyword("at").Then(QuotedString, (_, s) => s).Maybe(),
+                (card, address) => Make(k => new CardReferenceSyntax(Through(k, (SyntaxNode?)address ?? card), k, card, address))),
+            (r, k) =>
+            {
+                if (r.Word() is not { } card) return null;
+                StringSyntax? address = null;
+                if (!r.AtEnd && (r.Keyword("at") is null || (address = r.String()) is null)) return null;
+                return new CardReferenceSyntax(Through(k, (SyntaxNode?)address ?? card), k, card, address);
+            }),
+        Rule("signal", "signal 4 .. 20 mA", RangeSetting, DirectRangeSetting),
+        Rule("shunt", "shunt 250 ohm", QuantitySetting, DirectQuantitySetting),
+        Rule("range", "range 0 .. 450 m3/h", RangeSetting, DirectRangeSetting),
         Rule("sqrt", "sqrt cutoff 1 %",
-            k => Keyword("cutoff").Then(_ => Quantity()).Optional()
-                 .Select(c => new SqrtSyntax(Through(k, c.GetOrDefault()), k, c.GetOrDefault()))),
+            Keyword("cutoff").Then(Quantity(), (_, q) => q).Maybe()
+                .Map(c => Make(k => new SqrtSyntax(Through(k, c), k, c))),
+            (r, k) =>
+            {
+                QuantitySyntax? cutoff = null;
+                if (!r.AtEnd && (r.Keyword("cutoff") is null || (cutoff = r.Quantity(NoWords)) is null)) return null;
+                return new SqrtSyntax(Through(k, cutoff), k, cutoff);
+            }),
         Rule("health", "health ne43 | none | below 3.6 mA above 21 mA",
-            k => (from below in Keyword("below")
-                  from low in Quantity("above")
-                  from high in Keyword("above").Then(_ => Quantity()).Optional()
-                  select new HealthSyntax(Through(k, high.GetOrDefault() ?? low), k, below, low, high.GetOrDefault()))
-                 .Or(from above in Keyword("above")
-                     from high in Quantity()
-                     select new HealthSyntax(Through(k, high), k, above, null, high))
-                 .Or(Word.Select(w => new HealthSyntax(Through(k, w), k, w, null, null)))),
+            Keyword("below").Then(Quantity("above"), Keyword("above").Then(Quantity(), (_, q) => q).Maybe(),
+                    (below, low, high) => Make(k => new HealthSyntax(Through(k, high ?? low), k, below, low, high)))
+                .Or(Keyword("above").Then(Quantity(), (above, high) => Make(k => new HealthSyntax(Through(k, high), k, above, null, high))))
+                .Or(Word.Map(w => Make(k => new HealthSyntax(Through(k, w), k, w, null, null)))),
+            DirectHealth),
         Rule("on-fault", "on-fault hold | low | high | value 0.0",
-            k => from action in Word
-                 from value in action.Text == "value" ? NumberToken.Select(n => (NumberSyntax?)n) : Parse.Return((NumberSyntax?)null)
-                 select new OnFaultSyntax(Through(k, (SyntaxNode?)value ?? action), k, action, value)),
-        Rule("filter", "filter 2 s", QuantitySetting),
+            Word.Then(action => action.Text == "value" ? OnFaultValue : NoValue,
+                (action, value) => Make(k => new OnFaultSyntax(Through(k, (SyntaxNode?)value ?? action), k, action, value))),
+            (r, k) =>
+            {
+                if (r.Word() is not { } action) return null;
+                NumberSyntax? value = null;
+                if (action.Text == "value" && (value = r.Number()) is null) return null;
+                return new OnFaultSyntax(Through(k, (SyntaxNode?)value ?? action), k, action, value);
+            }),
+        Rule("filter", "filter 2 s", QuantitySetting, DirectQuantitySetting),
         Rule("measure", "measure flow | level | pressure | temperature | analysis | other",
-            k => Word.Select(w => new MeasureSyntax(Through(k, w), k, w))),
-        Rule("tolerance", "tolerance 0.5 %", QuantitySetting),
+            Word.Map(w => Make(k => new MeasureSyntax(Through(k, w), k, w))),
+            (r, k) => r.Word() is { } w ? new MeasureSyntax(Through(k, w), k, w) : null),
+        Rule("tolerance", "tolerance 0.5 %", QuantitySetting, DirectQuantitySetting),
         Rule("alarm", "alarm HH 430 [priority 1] [deadband 2 %] [delay 5 s] [clear 10 s] [text \"...\"]",
-            k => from kind in Word.Named("HH, H, L or LL")
-                 from setpoint in NumberToken
-                 from options in AlarmOption.Many()
-                 let list = options.ToImmutableArray()
-                 select new AlarmSyntax(Through(k, list.Length > 0 ? list[^1] : setpoint), k, kind, setpoint, list)),
+            WordToken("HH, H, L or LL").Then(NumberToken, AlarmOption.Repeated(),
+                (kind, setpoint, options) => Make(k => new AlarmSyntax(Through(k, options.Length > 0 ? options[^1] : setpoint), k, kind, setpoint, options))),
+            DirectAlarm),
         Rule("loop", "loop { supply 24 V ... }",
-            k => Parse.Return(new LoopSyntax(k.Span, k, BlockSyntax.Empty(default))), hasBlock: true));
+            Parse.Return(Make(k => new LoopSyntax(k.Span, k, BlockSyntax.Empty(default)))),
+            (_, k) => new LoopSyntax(k.Span, k, BlockSyntax.Empty(default)), hasBlock: true));
 
     public static readonly IReadOnlyDictionary<string, StatementRule> LoopBody = Rules(
-        Rule("supply", "supply 24 V", QuantitySetting),
-        Rule("device", "device 10.5 V", QuantitySetting),
+        Rule("supply", "supply 24 V", QuantitySetting, DirectQuantitySetting),
+        Rule("device", "device 10.5 V", QuantitySetting, DirectQuantitySetting),
         Rule("cable", "cable 450 m 1.0 mm2",
-            k => from length in Quantity()
-                 from size in Quantity()
-                 select new CableSyntax(Through(k, size), k, length, size)),
-        Rule("barrier", "barrier 280 ohm", QuantitySetting),
-        Rule("extra", "extra 0 ohm", QuantitySetting),
+            Quantity().Then(Quantity(), (length, size) => Make(k => new CableSyntax(Through(k, size), k, length, size))),
+            (r, k) => r.Quantity(NoWords) is { } length && r.Quantity(NoWords) is { } size ? new CableSyntax(Through(k, size), k, length, size) : null),
+        Rule("barrier", "barrier 280 ohm", QuantitySetting, DirectQuantitySetting),
+        Rule("extra", "extra 0 ohm", QuantitySetting, DirectQuantitySetting),
         Rule("hart", "hart",
-            k => Parse.Return(new FlagSyntax(k.Span, k))),
-        Rule("current", "current 20 mA", QuantitySetting));
+            Parse.Return(Make(k => new FlagSyntax(k.Span, k))),
+            (_, k) => new FlagSyntax(k.Span, k)),
+        Rule("current", "current 20 mA", QuantitySetting, DirectQuantitySetting));
 
     private static IReadOnlyDictionary<string, StatementRule> Rules(params StatementRule[] rules) =>
         rules.ToDictionary(r => r.Keyword, StringComparer.Ordinal);

@@ -1,5 +1,6 @@
 using System.Collections.Immutable;
 using System.Globalization;
+using System.Runtime.InteropServices;
 using Sprache;
 using ScaleGen.Text;
 
@@ -20,33 +21,90 @@ public static class SyntaxParser
     private static readonly Context LoopBody = new("a loop block", Grammar.LoopBody);
     private static readonly Context[] AllContexts = { TopLevel, CardBody, PointBody, LoopBody };
 
-    public static CompilationUnitSyntax Parse(SourceText source, DiagnosticBag diagnostics)
+    /// <summary>Below this many top-level statements a file is parsed on one thread: starting others costs more.</summary>
+    private const int ParallelThreshold = 256;
+
+    public static CompilationUnitSyntax Parse(SourceText source, DiagnosticBag diagnostics) => Parse(source, diagnostics, direct: true);
+
+    /// <summary>
+    /// The parse, with a switch for tests: <paramref name="direct"/> false parses every
+    /// statement with the Sprache grammar alone, which must give the same tree.
+    /// </summary>
+    internal static CompilationUnitSyntax Parse(SourceText source, DiagnosticBag diagnostics, bool direct)
     {
         var top = new StatementScanner(source, diagnostics).Scan();
-        var reader = new Reader(source, diagnostics);
-        var statements = reader.ParseStatements(top.Statements, TopLevel);
+        var statements = ParseTopLevel(source, top.Statements, diagnostics, direct);
         if (top.Statements.Count == 0)
             diagnostics.Report(DiagnosticCatalog.EmptyFile, source, new TextSpan(0, 0),
                 "this file declares nothing: add a card, profile or point, or leave it off the command line");
         return new CompilationUnitSyntax(source, statements, top.TrailingComments.ToImmutableArray());
     }
 
-    private sealed class Reader(SourceText source, DiagnosticBag diagnostics)
+    /// <summary>
+    /// Parses every file, the files and the top-level declarations of large files in
+    /// parallel. The result is the same as parsing one after another: units in file order,
+    /// and diagnostics collected in file and statement order.
+    /// </summary>
+    public static ImmutableArray<CompilationUnitSyntax> ParseAll(IReadOnlyList<SourceText> sources, DiagnosticBag diagnostics)
+    {
+        if (sources.Count == 1) return [Parse(sources[0], diagnostics)];
+        var units = new CompilationUnitSyntax[sources.Count];
+        var bags = new DiagnosticBag[sources.Count];
+        Parallel.For(0, sources.Count, i =>
+        {
+            bags[i] = new DiagnosticBag();
+            units[i] = Parse(sources[i], bags[i]);
+        });
+        foreach (var bag in bags) diagnostics.AddRange(bag);
+        return [.. units];
+    }
+
+    /// <summary>
+    /// The top-level statements, in parallel chunks when there are many. A statement's parse
+    /// depends only on its own text, so the chunks are independent; each reports into its
+    /// own bag, and the bags are added in chunk order.
+    /// </summary>
+    private static ImmutableArray<StatementSyntax> ParseTopLevel(SourceText source, List<RawStatement> raws, DiagnosticBag diagnostics, bool direct)
+    {
+        if (raws.Count < ParallelThreshold || Environment.ProcessorCount == 1)
+            return new Reader(source, diagnostics, direct).ParseStatements(raws, TopLevel);
+
+        var parsed = new StatementSyntax[raws.Count];
+        var chunkSize = Math.Max(32, raws.Count / (Environment.ProcessorCount * 8));
+        var bags = new DiagnosticBag[(raws.Count + chunkSize - 1) / chunkSize];
+        Parallel.For(0, bags.Length, chunk =>
+        {
+            var bag = new DiagnosticBag();
+            var reader = new Reader(source, bag, direct);
+            for (var i = chunk * chunkSize; i < Math.Min(raws.Count, (chunk + 1) * chunkSize); i++)
+                parsed[i] = reader.ParseWithTrivia(raws[i], TopLevel);
+            bags[chunk] = bag;
+        });
+        foreach (var bag in bags) diagnostics.AddRange(bag);
+        return ImmutableCollectionsMarshal.AsImmutableArray(parsed);
+    }
+
+    private sealed class Reader(SourceText source, DiagnosticBag diagnostics, bool direct)
     {
         private readonly string _text = source.Text;
+        private readonly FastReader _reader = new();
 
         public ImmutableArray<StatementSyntax> ParseStatements(List<RawStatement> raws, Context context)
         {
             var builder = ImmutableArray.CreateBuilder<StatementSyntax>(raws.Count);
-            foreach (var raw in raws)
+            foreach (var raw in raws) builder.Add(ParseWithTrivia(raw, context));
+            return builder.MoveToImmutable();
+        }
+
+        public StatementSyntax ParseWithTrivia(RawStatement raw, Context context)
+        {
+            var statement = ParseStatement(raw, context);
+            // Most statements have no comments: they keep the shared empty trivia, uncopied.
+            if (raw.LeadingComments.Count == 0 && raw.TrailingComment is null && !raw.BlankLineBefore) return statement;
+            return statement with
             {
-                var statement = ParseStatement(raw, context);
-                builder.Add(statement with
-                {
-                    Trivia = new Trivia(raw.LeadingComments.ToImmutableArray(), raw.TrailingComment, raw.BlankLineBefore),
-                });
-            }
-            return builder.ToImmutable();
+                Trivia = new Trivia(raw.LeadingComments.ToImmutableArray(), raw.TrailingComment, raw.BlankLineBefore),
+            };
         }
 
         /// <summary>
@@ -57,36 +115,39 @@ public static class SyntaxParser
         private StatementSyntax ParseStatement(RawStatement raw, Context context)
         {
             var rawSpan = TextSpan.FromBounds(raw.Start, raw.End);
-            var noKeyword = new WordSyntax(new TextSpan(raw.Start, 0), "");
-            if (raw.Broken) return new ErrorStatementSyntax(rawSpan, noKeyword);
-            var input = new SourceInput(_text, raw.Start, raw.End);
-            var keywordResult = Grammar.Word(input);
-            if (!keywordResult.WasSuccessful)
+            if (raw.Broken) return new ErrorStatementSyntax(rawSpan, new WordSyntax(new TextSpan(raw.Start, 0), ""));
+            _reader.Reset(_text, raw.Start, raw.End);
+            var keyword = _reader.Word();
+            if (keyword is null)
             {
                 ReportBadStart(raw);
-                return new ErrorStatementSyntax(rawSpan, noKeyword);
+                return new ErrorStatementSyntax(rawSpan, new WordSyntax(new TextSpan(raw.Start, 0), ""));
             }
-
-            var keyword = keywordResult.Value;
             if (!context.Rules.TryGetValue(keyword.Text, out var rule))
             {
                 ReportUnknownKeyword(keyword, context);
                 return new ErrorStatementSyntax(rawSpan, keyword);
             }
 
-            var result = rule.Arguments(keyword)(keywordResult.Remainder);
-            if (!result.WasSuccessful)
+            // The direct reader takes the well-formed statement; anything else goes to the
+            // Sprache grammar, which says what is wrong.
+            var arguments = _reader.Position;
+            var statement = direct ? rule.Direct(_reader, keyword) : null;
+            if (statement is null || !_reader.AtEnd)
             {
-                ReportFailure(rule, result.Remainder.Position, raw.End, result.Message);
-                return new ErrorStatementSyntax(rawSpan, keyword);
+                var result = rule.Arguments(new SourceInput(_text, arguments, raw.End));
+                if (!result.WasSuccessful)
+                {
+                    ReportFailure(rule, result.Remainder.Position, raw.End, result.Message);
+                    return new ErrorStatementSyntax(rawSpan, keyword);
+                }
+                if (!result.Remainder.AtEnd)
+                {
+                    ReportFailure(rule, result.Remainder.Position, raw.End, null, trailing: true);
+                    return new ErrorStatementSyntax(rawSpan, keyword);
+                }
+                statement = result.Value(keyword);
             }
-            if (!result.Remainder.AtEnd)
-            {
-                ReportFailure(rule, result.Remainder.Position, raw.End, null, trailing: true);
-                return new ErrorStatementSyntax(rawSpan, keyword);
-            }
-
-            var statement = result.Value;
             if (rule.HasBlock)
             {
                 if (raw.Block is null)

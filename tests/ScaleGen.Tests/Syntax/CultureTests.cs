@@ -1,5 +1,6 @@
 using CsCheck;
 using ScaleGen.Emit;
+using ScaleGen.Samples;
 using ScaleGen.Syntax;
 using ScaleGen.Tests.Support;
 using ScaleGen.Text;

@@ -1,4 +1,5 @@
 using CsCheck;
+using ScaleGen.Samples;
 using ScaleGen.Syntax;
 using ScaleGen.Tests.Support;
 using ScaleGen.Text;

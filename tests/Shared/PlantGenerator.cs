@@ -1,14 +1,17 @@
 using System.Globalization;
+using System.Text;
 using CsCheck;
 
-namespace ScaleGen.Tests.Syntax;
+namespace ScaleGen.Samples;
 
 /// <summary>
-/// Random valid plants as <c>.scale</c> text, for property tests. Two steps: what the plant
+/// Random valid plants as <c>.scale</c> text, for property tests and benchmarks. Two steps: what the plant
 /// says (cards, profiles with <c>uses</c> chains, points with every attribute) as a tree of
 /// statements, then how it is written (spacing, quantities with and without a space, quoted
 /// units, comments, blank lines, <c>;</c>-separated statements, one-line blocks).
 /// Every choice keeps the plant free of errors; warnings are allowed.
+/// This file is shared: the test project and the benchmark project both compile it (linked
+/// from tests/Shared), so benchmarks measure the same kind of plant the tests check.
 /// </summary>
 internal static class PlantGenerator
 {
@@ -341,4 +344,243 @@ internal static class PlantGenerator
         from lineEnd in Gen.FrequencyConst((5, "\n"), (1, "\r\n"))
         let text = (header.Length > 0 ? string.Concat(header[0].Select(c => c + "\n")) + "\n" : "") + body + (footer.Length > 0 ? "\n" + footer[0] + "\n" : "")
         select lineEnd == "\n" ? text : text.Replace("\n", "\r\n");
+
+    // ---- Large sites, for benchmarks and scale tests ---------------------------------------
+
+    /// <summary>One file of a generated site.</summary>
+    public sealed record SiteFile(string Name, string Text);
+
+    /// <summary>The cards and profiles every generated site uses (invented, in the example plant's style).</summary>
+    private const string SiteCards = """
+        # Invented site for benchmarks and scale tests: cards and shared profiles.
+        # Caution: generated test data, not a design; alarms here are no safety functions.
+
+        plant "Invented site for scale tests"
+        cycle 100 ms
+
+        card ai_4_20 {
+          counts 0 .. 27648 at 4 .. 20 mA
+          limits -4864 .. 32511
+          fault-code 32767
+          type INT
+          input 250 ohm
+        }
+
+        card ai_0_20 {
+          counts 0 .. 27648 at 0 .. 20 mA
+          limits 0 .. 32511
+          fault-code 32767
+          input 50 ohm
+        }
+
+        card av_1_5 {
+          counts 0 .. 4000 at 1 .. 5 V
+          limits -500 .. 4500
+          fault-code -32768, 32767
+        }
+
+        profile live_zero {
+          health ne43
+          on-fault hold
+          tolerance 0.5 %
+        }
+
+        profile flow_meter uses live_zero {
+          measure flow
+          filter 1 s
+        }
+
+        profile dp_flow uses flow_meter {
+          sqrt cutoff 3 %
+        }
+
+        profile mag_flow uses flow_meter {
+          filter 2 s
+        }
+
+        profile level uses live_zero {
+          measure level
+          filter 5 s
+        }
+
+        profile pressure uses live_zero {
+          measure pressure
+          filter 0.5 s
+          tolerance 0.25 %
+        }
+
+        profile temperature uses live_zero {
+          measure temperature
+          filter 10 s
+        }
+
+        profile analyser uses live_zero {
+          measure analysis
+          filter 10 s
+          tolerance 1 %
+        }
+
+        """;
+
+    /// <summary>
+    /// An invented site of <paramref name="points"/> points shaped like the example plant: a
+    /// file of cards and profiles with <c>uses</c> chains, then area files of up to
+    /// <paramref name="pointsPerFile"/> points each: flows, levels, pressures, temperatures,
+    /// analysers and valve positions with descriptions, alarms with texts, and loops. The
+    /// plant checks without errors or warnings; the same seed gives the same text everywhere.
+    /// </summary>
+    public static IReadOnlyList<SiteFile> Site(int points, int seed = 1, int pointsPerFile = 1000)
+    {
+        var random = new PCG(7, (ulong)seed);
+        int Pick(int low, int high) => Gen.Int[low, high].Generate(random, null, out _);
+        T OneOf<T>(params T[] choices) => choices[Pick(0, choices.Length - 1)];
+
+        var files = new List<SiteFile> { new("cards.scale", SiteCards) };
+        for (var first = 0; first < points; first += pointsPerFile)
+        {
+            var area = files.Count.ToString("000", CultureInfo.InvariantCulture);
+            var text = new StringBuilder();
+            text.Append("# Invented site: area ").Append(area).Append(". Generated test data.\n");
+            for (var i = first; i < Math.Min(points, first + pointsPerFile); i++)
+            {
+                if ((i - first) % 128 == 0) text.Append("\n# ---------------------------------------------------------------- rack ").Append((i - first) / 128 + 1).Append('\n');
+                text.Append('\n');
+                WritePlain(text, SitePoint(i, area, Pick, OneOf), 0);
+            }
+            files.Add(new SiteFile($"area-{area}.scale", text.ToString()));
+        }
+        return files;
+    }
+
+    private static Node SitePoint(int index, string area, Func<int, int, int> pick, Func<string[], string> oneOf)
+    {
+        var number = (index + 1).ToString("00000", CultureInfo.InvariantCulture);
+        var address = string.Create(CultureInfo.InvariantCulture, $"A{area}.R{index / 128 % 8}.S{index / 16 % 8}.C{index % 16}");
+        var settings = new List<Node>();
+        void Add(params string[] words) => settings.Add(new Node(words));
+        Node Loop(bool hart)
+        {
+            var loop = new List<Node>
+            {
+                new(new[] { "supply", "24", "V" }),
+                new(new[] { "device", oneOf(new[] { "10.5", "12" }), "V" }),
+                new(new[] { "cable", Num(pick(2, 80) * 5), "m", oneOf(new[] { "0.75", "1.0", "1.5" }), "mm2" }),
+            };
+            if (hart) loop.Add(new Node(new[] { "hart" }));
+            return new Node(new[] { "loop" }, loop.ToArray());
+        }
+        string At(double span, double fraction) => Num(Math.Round(span * fraction, 3));
+        string[] header;
+
+        switch (pick(0, 19))
+        {
+            case < 4: // flow, differential pressure with square root
+            {
+                var span = (double)pick(1, 24) * 50;
+                header = new[] { "point", "FIT-" + number, "uses", "dp_flow" };
+                Add("desc", Quote($"Area {area} flow {number} (orifice)"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", Num(span), "m3/h");
+                Add("alarm", "H", At(span, 0.9), "deadband", "5", "%", "delay", "15", "s", "text", Quote($"Flow {number} above design: check the control valve"));
+                Add("alarm", "L", At(span, 0.15), "deadband", "5", "%", "delay", "15", "s", "clear", "10", "s", "text", Quote($"Flow {number} low: check the duty pump"));
+                settings.Add(Loop(hart: true));
+                break;
+            }
+            case < 6: // flow, magnetic
+            {
+                var span = (double)pick(1, 40) * 5;
+                header = new[] { "point", "FT-" + number, "uses", "mag_flow" };
+                Add("desc", Quote($"Area {area} dosing flow {number}"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", Num(span), "l/s");
+                Add("alarm", "H", At(span, 0.85), "deadband", "5", "%", "delay", "30", "s");
+                Add("alarm", "LL", At(span, 0.05), "deadband", "5", "%", "priority", "2", "delay", "30", "s", "text", Quote($"Dosing flow {number} lost"));
+                settings.Add(Loop(hart: false));
+                break;
+            }
+            case < 10: // level
+            {
+                var span = (double)pick(2, 30);
+                header = new[] { "point", "LIT-" + number, "uses", "level" };
+                Add("desc", Quote($"Area {area} tank {number} level"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", Num(span), "m");
+                Add("alarm", "HH", At(span, 0.95), "deadband", "5", "%", "priority", "2", "delay", "10", "s", "text", Quote($"Tank {number} very high: overflow risk"));
+                Add("alarm", "H", At(span, 0.85), "deadband", "5", "%", "delay", "60", "s");
+                Add("alarm", "L", At(span, 0.15), "deadband", "5", "%", "delay", "60", "s");
+                Add("alarm", "LL", At(span, 0.05), "deadband", "5", "%", "priority", "2", "delay", "10", "s", "text", Quote($"Tank {number} very low: pumps at dry-run risk"));
+                settings.Add(Loop(hart: pick(0, 1) == 1));
+                break;
+            }
+            case < 15: // pressure
+            {
+                var span = (double)pick(1, 40);
+                header = new[] { "point", "PT-" + number, "uses", "pressure" };
+                Add("desc", Quote($"Area {area} pump {number} discharge pressure"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", Num(span), "bar");
+                Add("alarm", "HH", At(span, 0.9), "deadband", "2", "%", "delay", "5", "s", "text", Quote($"Pump {number} discharge very high: check the discharge valve is open"));
+                Add("alarm", "H", At(span, 0.8), "deadband", "2", "%", "delay", "15", "s");
+                settings.Add(Loop(hart: false));
+                break;
+            }
+            case < 17: // temperature
+            {
+                var span = (double)pick(4, 30) * 5;
+                header = new[] { "point", "TT-" + number, "uses", "temperature" };
+                Add("desc", Quote($"Area {area} bearing {number} temperature"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", Num(span), "degC");
+                Add("on-fault", "value", Num(span / 4));
+                Add("alarm", "H", At(span, 0.7), "deadband", "1", "%", "delay", "60", "s", "text", Quote($"Bearing {number} hot"));
+                settings.Add(Loop(hart: false));
+                break;
+            }
+            case 17: // analyser with its own 0-20 mA output: no live zero, no loop budget
+                header = new[] { "point", "AIT-" + number, "uses", "analyser" };
+                Add("desc", Quote($"Area {area} turbidity {number}"));
+                Add("card", "ai_0_20", "at", Quote(address));
+                Add("signal", "0", "..", "20", "mA");
+                Add("range", "0", "..", "1000", "NTU");
+                Add("health", "none");
+                Add("alarm", "H", Num(pick(10, 40) * 10), "deadband", "2", "%", "delay", "60", "s", "text", Quote($"Turbidity {number} high: raise the coagulant dose"));
+                break;
+            case 18: // level on the 1-5 V outstation card, through a shunt
+            {
+                var span = (double)pick(2, 12) * 100;
+                header = new[] { "point", "LDIT-" + number, "uses", "level" };
+                Add("desc", Quote($"Area {area} screen {number} differential level"));
+                Add("card", "av_1_5", "at", Quote(address));
+                Add("shunt", "250", "ohm");
+                Add("range", "0", "..", Num(span), "mm");
+                Add("alarm", "H", At(span, 0.6), "deadband", "5", "%", "delay", "60", "s", "text", Quote($"Screen {number} blinding: start the screen wash"));
+                settings.Add(Loop(hart: false));
+                break;
+            }
+            default: // valve position, no profile
+                header = new[] { "point", "ZT-" + number };
+                Add("desc", Quote($"Area {area} valve {number} position"));
+                Add("card", "ai_4_20", "at", Quote(address));
+                Add("range", "0", "..", "100", "%");
+                Add("health", "ne43");
+                Add("tolerance", "1", "%");
+                settings.Add(Loop(hart: false));
+                break;
+        }
+        return new Node(header, settings.ToArray());
+    }
+
+    /// <summary>One statement per line, two spaces per level: the layout <c>fmt</c> writes.</summary>
+    private static void WritePlain(StringBuilder text, Node node, int depth)
+    {
+        text.Append(' ', 2 * depth).AppendJoin(' ', node.Words);
+        if (node.Block is null)
+        {
+            text.Append('\n');
+            return;
+        }
+        text.Append(" {\n");
+        foreach (var child in node.Block) WritePlain(text, child, depth + 1);
+        text.Append(' ', 2 * depth).Append("}\n");
+    }
 }
