@@ -22,6 +22,19 @@ public sealed class TempFolder : IDisposable
         return path;
     }
 
+    /// <summary>
+    /// Output with this folder's path taken out of every file path, as written plainly, in a
+    /// JSON string (backslashes doubled) or as a URI (forward slashes).
+    /// </summary>
+    public string Anonymise(string output)
+    {
+        var separator = System.IO.Path.DirectorySeparatorChar;
+        return output
+            .Replace(Path.Replace("\\", "\\\\") + (separator == '\\' ? "\\\\" : "/"), "", StringComparison.Ordinal)
+            .Replace(Path + separator, "", StringComparison.Ordinal)
+            .Replace(Path.Replace('\\', '/') + "/", "", StringComparison.Ordinal);
+    }
+
     /// <summary>Every file under a folder (hidden ones too) with its bytes, by relative path.</summary>
     public static SortedDictionary<string, byte[]> Snapshot(string folder)
     {

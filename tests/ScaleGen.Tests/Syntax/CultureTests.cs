@@ -61,7 +61,7 @@ public class CultureTests
     [Fact]
     public void Check_json_is_byte_identical_under_every_culture()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var bad = folder.Write("lexical.scale", BadFiles.LexicalTrouble);
         var files = TestInputs.ExampleFiles.Append(bad).ToArray();
         SameUnderEveryCulture(() =>
@@ -78,7 +78,7 @@ public class CultureTests
     [Fact]
     public void Fmt_output_is_byte_identical_under_every_culture()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var messy = folder.Write("messy.scale",
             "card AI16 { counts 0 .. 27648 at 4 .. 20 mA; limits -4864..32511 }\n" +
             "point LT-101 { card AI16; range 0.5..12.75 m; health below 3.6mA above 21mA; alarm H 11.5 deadband 2.5 % delay 0.5s }\n");

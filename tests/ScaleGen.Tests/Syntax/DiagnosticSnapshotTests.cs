@@ -54,7 +54,7 @@ public class DiagnosticSnapshotTests
     /// </summary>
     private static string CheckOutput(string format)
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("many-mistakes.scale", BadFiles.ManyMistakes);
         var result = TestInputs.RunCli("check", path, "--format", format);
         Assert.Equal(1, result.ExitCode);

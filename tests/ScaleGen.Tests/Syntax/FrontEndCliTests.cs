@@ -38,7 +38,7 @@ public class FrontEndCliTests
     [Fact]
     public void Check_exits_0_on_a_clean_file_and_prints_nothing()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var result = Run("check", folder.Write("clean.scale", Clean));
         Assert.Equal(0, result.ExitCode);
         Assert.Equal("", result.Out);
@@ -48,7 +48,7 @@ public class FrontEndCliTests
     [Fact]
     public void Check_exits_0_on_warnings_and_prints_them()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("warn.scale", WarningsOnly);
         var result = Run("check", path);
         Assert.Equal(0, result.ExitCode);
@@ -62,7 +62,7 @@ public class FrontEndCliTests
     [InlineData("sarif")]
     public void Check_exits_1_on_errors_in_every_format(string format)
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var result = Run("check", "--format", format, folder.Write("bad.scale", BadFiles.ManyMistakes));
         Assert.Equal(1, result.ExitCode);
         Assert.Contains("SG1022", result.Out, StringComparison.Ordinal);
@@ -71,7 +71,7 @@ public class FrontEndCliTests
     [Fact]
     public void Check_exits_1_on_binary_garbage_without_a_stack_trace()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = Path.Combine(folder.Path, "garbage.scale");
         File.WriteAllBytes(path, new byte[] { 0x00, 0xFF, 0xFE, 0x7B, 0x0A, 0xC3, 0x28, 0x22, 0x7D, 0x7D, 0x01 });
         var result = Run("check", path);
@@ -82,7 +82,7 @@ public class FrontEndCliTests
     [Fact]
     public void Check_reads_every_scale_file_in_a_folder_as_one_plant()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         folder.Write("cards.scale", TestInputs.StandardCard + "\n");
         folder.Write("points.scale", "point FT-101 {\n  card AI16\n  range 0 .. 450 m3/h\n  health ne43\n}\n");
         var result = Run("check", folder.Path);
@@ -95,7 +95,7 @@ public class FrontEndCliTests
     [InlineData("fmt")]
     public void A_missing_file_exits_2_with_one_line(string command)
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var missing = Path.Combine(folder.Path, "nowhere.scale");
         var result = Run(command, missing);
         Assert.Equal(2, result.ExitCode);
@@ -106,7 +106,7 @@ public class FrontEndCliTests
     [Fact]
     public void A_folder_without_scale_files_exits_2()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var result = Run("check", folder.Path);
         Assert.Equal(2, result.ExitCode);
         Assert.Contains("no .scale files", result.Error, StringComparison.Ordinal);
@@ -138,7 +138,7 @@ public class FrontEndCliTests
     [Fact]
     public void Fmt_check_exits_1_on_an_unformatted_copy_and_changes_nothing()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("messy.scale", Unformatted);
         var result = Run("fmt", "--check", path);
         Assert.Equal(1, result.ExitCode);
@@ -158,7 +158,7 @@ public class FrontEndCliTests
     [Fact]
     public void Fmt_write_rewrites_the_file_into_canonical_layout()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("messy.scale", Unformatted);
         var written = Run("fmt", "--write", path);
         Assert.Equal(0, written.ExitCode);
@@ -171,7 +171,7 @@ public class FrontEndCliTests
     [Fact]
     public void Fmt_prints_the_canonical_layout_to_stdout_without_touching_the_file()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("messy.scale", Unformatted);
         var result = Run("fmt", path);
         Assert.Equal(0, result.ExitCode);
@@ -182,7 +182,7 @@ public class FrontEndCliTests
     [Fact]
     public void Fmt_refuses_a_file_with_syntax_errors_and_leaves_it_alone()
     {
-        using var folder = new TemporaryFolder();
+        using var folder = new TempFolder();
         var path = folder.Write("bad.scale", BadFiles.ManyMistakes);
         var result = Run("fmt", "--write", path);
         Assert.Equal(1, result.ExitCode);
