@@ -41,7 +41,7 @@ internal static class ImportCommand
             var csvPath = result.GetValue(csv)!;
             var headerMap = new HeaderMap();
             if (headerMap.AddSpecs(result.GetValue(map)!) is { } mapError) throw new UsageException(mapError);
-            if (result.GetValue(mapFile) is { } mapPath && headerMap.AddFile(mapPath, ReadText(mapPath)) is { } fileError)
+            if (result.GetValue(mapFile) is { } mapPath && headerMap.AddFile(mapPath, Inputs.ReadOne(mapPath).Text) is { } fileError)
                 throw new UsageException(fileError);
             var cardFiles = result.GetValue(cards)!;
             var declarations = cardFiles.Length == 0 ? Array.Empty<SourceText>() : Inputs.Load(cardFiles);
@@ -50,7 +50,7 @@ internal static class ImportCommand
             if (outputPath is not null && Path.GetDirectoryName(Path.GetFullPath(outputPath)) is { } folder && !Directory.Exists(folder))
                 throw new UsageException($"cannot write '{outputPath}': there is no folder '{folder}'");
 
-            var imported = IoListImporter.Import(csvPath, ReadText(csvPath), new ImportOptions(headerMap, separator, declarations), outputPath);
+            var imported = IoListImporter.Import(csvPath, Inputs.ReadOne(csvPath).Text, new ImportOptions(headerMap, separator, declarations), outputPath);
             foreach (var problem in imported.Problems) io.Error.WriteLine(problem.ToString());
             var errors = imported.Problems.Count(p => p.IsError);
             var warnings = imported.Problems.Count - errors;
@@ -77,19 +77,5 @@ internal static class ImportCommand
             return ExitCodes.Ok;
         });
         return command;
-    }
-
-    private static string ReadText(string path)
-    {
-        try
-        {
-            return File.ReadAllText(path);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException or ArgumentException or NotSupportedException)
-        {
-            throw new UsageException(e is FileNotFoundException or DirectoryNotFoundException
-                ? $"cannot read '{path}': no such file"
-                : $"cannot read '{path}': {e.Message}");
-        }
     }
 }
