@@ -54,9 +54,15 @@ public static class OutputWriter
 
     private static readonly UTF8Encoding Utf8NoBom = new(encoderShouldEmitUTF8Identifier: false);
 
-    /// <summary>Runs the emitters one after another and writes their files all or nothing.</summary>
+    /// <summary>
+    /// Runs the emitters and writes their files all or nothing. The emitters run side by
+    /// side (each writes only its own files), and the files come back in catalog order.
+    /// <paramref name="writing"/>, if given, hears the name of each file as its writing
+    /// starts, from whichever thread writes it.
+    /// </summary>
     /// <exception cref="OutputFolderException">The folder cannot be used or written, or holds one of the input files.</exception>
-    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory)
+    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory,
+        Action<string>? writing = null)
     {
         // The folder is replaced whole: a source kept inside it would be deleted.
         var target = FullPath(directory) + Path.DirectorySeparatorChar;
@@ -65,7 +71,8 @@ public static class OutputWriter
             if (Path.GetFullPath(source.Path).StartsWith(target, OperatingSystem.IsLinux() ? StringComparison.Ordinal : StringComparison.OrdinalIgnoreCase))
                 throw new OutputFolderException($"'{directory}' holds the input file '{source.Path}', and a build replaces the whole folder; give another output folder");
         }
-        return Write(directory, emitters.SelectMany(emitter => emitter.Emit(context)));
+        var groups = emitters.Select(emitter => emitter.Emit(context)).ToList();
+        return Write(directory, groups, stopAt: null, writing)!;
     }
 
     /// <summary>
@@ -75,7 +82,7 @@ public static class OutputWriter
     /// </summary>
     /// <exception cref="OutputFolderException">The folder cannot be used or written.</exception>
     public static IReadOnlyList<WrittenFile> Write(string directory, IEnumerable<GeneratedFile> files) =>
-        Write(directory, files, stopAt: null)!;
+        Write(directory, [files], stopAt: null, writing: null)!;
 
     /// <summary>The folder a write fills before the swap.</summary>
     public static string TemporaryFolderFor(string directory) => Sibling(directory, "scalegen-new");
@@ -98,7 +105,16 @@ public static class OutputWriter
     /// The write, with a test hook: when <paramref name="stopAt"/> returns true the write
     /// returns null at once, leaving everything as a killed process would.
     /// </summary>
-    internal static IReadOnlyList<WrittenFile>? Write(string directory, IEnumerable<GeneratedFile> files, Func<WriteStep, bool>? stopAt)
+    internal static IReadOnlyList<WrittenFile>? Write(string directory, IEnumerable<GeneratedFile> files, Func<WriteStep, bool>? stopAt) =>
+        Write(directory, [files], stopAt, writing: null);
+
+    /// <summary>
+    /// The write. Each group of files (one emitter's) is read lazily and written in order;
+    /// groups are written in parallel unless a test hook watches the steps. A failure in any
+    /// group leaves the folder as it was, and its exception comes out unchanged.
+    /// </summary>
+    private static IReadOnlyList<WrittenFile>? Write(string directory, IReadOnlyList<IEnumerable<GeneratedFile>> groups,
+        Func<WriteStep, bool>? stopAt, Action<string>? writing)
     {
         var target = FullPath(directory);
         using var _ = Lock(directory, target);
@@ -106,7 +122,6 @@ public static class OutputWriter
         CheckReplaceable(directory, target);
 
         var temporary = TemporaryFolderFor(target);
-        var written = new List<WrittenFile>();
         var swapped = false;
         try
         {
@@ -116,29 +131,71 @@ public static class OutputWriter
                 File.WriteAllText(Path.Combine(temporary, MarkerFileName), MarkerText, Utf8NoBom);
             });
             var seen = new HashSet<string>(StringComparer.OrdinalIgnoreCase) { MarkerFileName };
-            foreach (var file in files)
+            var written = new List<WrittenFile>[groups.Count];
+            var stopped = false;
+
+            void WriteGroup(int index)
             {
-                var relative = CheckRelativePath(file.RelativePath);
-                if (!seen.Add(relative))
-                    throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
-                var bytes = Utf8NoBom.GetBytes(file.Content);
-                Io(directory, () =>
+                written[index] = new List<WrittenFile>();
+                foreach (var file in groups[index])
                 {
-                    var path = Path.Combine(temporary, relative);
-                    Directory.CreateDirectory(Path.GetDirectoryName(path)!);
-                    File.WriteAllBytes(path, bytes);
-                });
-                written.Add(new WrittenFile(relative, bytes.Length));
-                if (stopAt?.Invoke(WriteStep.FileWritten) == true) return null;
+                    var relative = CheckRelativePath(file.RelativePath);
+                    lock (seen)
+                    {
+                        if (!seen.Add(relative))
+                            throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
+                    }
+                    writing?.Invoke(relative);
+                    written[index].Add(WriteFile(directory, temporary, relative, file));
+                    if (stopAt?.Invoke(WriteStep.FileWritten) == true)
+                    {
+                        stopped = true;
+                        return;
+                    }
+                }
+            }
+
+            if (groups.Count == 1 || stopAt is not null || Environment.ProcessorCount == 1)
+            {
+                for (var i = 0; i < groups.Count && !stopped; i++) WriteGroup(i);
+                if (stopped) return null;
+            }
+            else
+            {
+                try
+                {
+                    Parallel.For(0, groups.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, WriteGroup);
+                }
+                catch (AggregateException failure)
+                {
+                    // The first failure as if the groups had run one after another: its own type and stack.
+                    System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(failure.InnerExceptions[0]).Throw();
+                }
             }
 
             if (!Swap(directory, target, temporary, ref swapped, stopAt)) return null;
+            return written.SelectMany(group => group).ToList();
         }
         finally
         {
             if (!swapped) DeleteQuietly(temporary);
         }
-        return written;
+    }
+
+    /// <summary>Streams one file into the temporary folder as UTF-8 without a byte-order mark.</summary>
+    private static WrittenFile WriteFile(string directory, string temporary, string relative, GeneratedFile file)
+    {
+        long bytes = 0;
+        Io(directory, () =>
+        {
+            var path = Path.Combine(temporary, relative);
+            Directory.CreateDirectory(Path.GetDirectoryName(path)!);
+            using var stream = new FileStream(path, FileMode.CreateNew, FileAccess.Write, FileShare.None, 1 << 16);
+            using (var writer = new StreamWriter(stream, Utf8NoBom, 1 << 16, leaveOpen: true) { NewLine = "\n" })
+                file.WriteTo(writer);
+            bytes = stream.Length;
+        });
+        return new WrittenFile(relative, bytes);
     }
 
     /// <summary>Rename the old folder aside, the new one into place, delete the old. False when the test hook stopped it.</summary>

@@ -43,7 +43,11 @@ public static class SheetsHtml
         footer { font-size: 7pt; color: #333; margin-top: 2mm; }
         """;
 
-    public static string Page(EmitContext context, IReadOnlyList<PointSheet> sheets, string what)
+    public static string Page(EmitContext context, IReadOnlyList<PointSheet> sheets, string what) =>
+        TextChunks.Render(output => Page(output, context, sheets, what));
+
+    /// <summary>The same page, streamed a few points at a time.</summary>
+    public static void Page(TextWriter output, EmitContext context, IReadOnlyList<PointSheet> sheets, string what)
     {
         var html = new StringBuilder();
         html.Append("<!DOCTYPE html>\n<!--\n");
@@ -71,11 +75,15 @@ public static class SheetsHtml
             .Append("<li>Band tests must show the status named. Alarms: move the current slowly the way <em>Trips when mA</em> says until the alarm trips, then back until it resets (deadband applied); hold each current for the on / off delay.</li>\n")
             .Append("</ul>\n");
 
-        foreach (var sheet in sheets) Section(html, sheet);
+        foreach (var sheet in sheets)
+        {
+            Section(html, sheet);
+            TextChunks.Spill(html, output);
+        }
 
         html.Append("<footer>").Append(E($"{sheets.Count} point{(sheets.Count == 1 ? "" : "s")}.")).Append("</footer>\n");
         html.Append("</body>\n</html>\n");
-        return html.ToString();
+        TextChunks.Spill(html, output, all: true);
     }
 
     private static void Section(StringBuilder html, PointSheet sheet)

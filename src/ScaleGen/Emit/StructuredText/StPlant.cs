@@ -24,7 +24,10 @@ public static class StPlant
     public const int TagLength = 40;
     public const int DescriptionLength = 80;
 
-    public static string Text(EmitContext context)
+    public static string Text(EmitContext context) => TextChunks.Render(output => Write(output, context));
+
+    /// <summary>The same program, streamed a few points at a time.</summary>
+    public static void Write(TextWriter output, EmitContext context)
     {
         var plant = context.Plant;
         var text = new StringBuilder();
@@ -41,20 +44,26 @@ public static class StPlant
 
         var points = ForPlant(plant).Select(n => (Names: n, Parameters: StPointParameters.Of(n.Point, plant.CycleSeconds))).ToList();
         foreach (var (names, parameters) in points)
+        {
             AppendDeclarations(text, names, parameters, plant.CycleSeconds);
+            TextChunks.Spill(text, output);
+        }
 
         text.Append('\n').Append(Banner).Append('\n');
         text.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
         foreach (var (names, parameters) in points)
+        {
             text.Append(Call(names, parameters)).Append('\n');
+            TextChunks.Spill(text, output);
+        }
         text.Append('\n').Append("END_PROGRAM").Append('\n');
-        return text.ToString();
+        TextChunks.Spill(text, output, all: true);
     }
 
     private static void AppendDeclarations(StringBuilder text, StPointNames name, StPointParameters p, double cycle)
     {
         var point = name.Point;
-        void Line(int depth, string line) => text.Append(string.Concat(Enumerable.Repeat(Indent, depth))).Append(line).Append('\n');
+        void Line(int depth, string line) => text.Append(' ', Indent.Length * depth).Append(line).Append('\n');
         void Field(int depth, string field, string value, bool last = false) => Line(depth, $"{field} := {value}{(last ? "" : ",")}");
         void Note(int depth, string comment) => Line(depth, StFile.Comment(comment));
         void RangeFields(string prefix, StRawRange range)
