@@ -24,7 +24,9 @@ public sealed record GeneratedFile
 
     /// <summary>
     /// A file written by <paramref name="write"/>, which may be called more than once and must
-    /// write the same text each time. It ends lines with '\n' itself (never WriteLine).
+    /// write the same text each time, also while other files of the same emitter are being
+    /// written on other threads (so it only reads what they share). It ends lines with '\n'
+    /// itself (never WriteLine).
     /// </summary>
     public GeneratedFile(string relativePath, Action<TextWriter> write)
     {

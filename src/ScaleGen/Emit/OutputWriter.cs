@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using System.Text;
 
 namespace ScaleGen.Emit;
@@ -55,8 +56,8 @@ public static class OutputWriter
     private static readonly UTF8Encoding Utf8NoBom = new(encoderShouldEmitUTF8Identifier: false);
 
     /// <summary>
-    /// Runs the emitters and writes their files all or nothing. The emitters run side by
-    /// side (each writes only its own files), and the files come back in catalog order.
+    /// Runs the emitters and writes their files all or nothing. Files are written side by
+    /// side, and the list comes back in catalog order.
     /// <paramref name="writing"/>, if given, hears the name of each file as its writing
     /// starts, from whichever thread writes it.
     /// </summary>
@@ -109,9 +110,10 @@ public static class OutputWriter
         Write(directory, [files], stopAt, writing: null);
 
     /// <summary>
-    /// The write. Each group of files (one emitter's) is read lazily and written in order;
-    /// groups are written in parallel unless a test hook watches the steps. A failure in any
-    /// group leaves the folder as it was, and its exception comes out unchanged.
+    /// The write. The groups of files (one per emitter) are read lazily and the files written
+    /// in parallel, unless a test hook watches the steps; the list that comes back is in group
+    /// and file order. A failure anywhere leaves the folder as it was, and its exception comes
+    /// out unchanged.
     /// </summary>
     private static IReadOnlyList<WrittenFile>? Write(string directory, IReadOnlyList<IEnumerable<GeneratedFile>> groups,
         Func<WriteStep, bool>? stopAt, Action<string>? writing)
@@ -131,50 +133,52 @@ public static class OutputWriter
                 File.WriteAllText(Path.Combine(temporary, MarkerFileName), MarkerText, Utf8NoBom);
             });
             var seen = new HashSet<string>(StringComparer.OrdinalIgnoreCase) { MarkerFileName };
-            var written = new List<WrittenFile>[groups.Count];
-            var stopped = false;
+            var written = new List<(int Group, int Index, WrittenFile File)>();
 
-            void WriteGroup(int index)
+            bool WriteOne(int group, int index, GeneratedFile file)
             {
-                written[index] = new List<WrittenFile>();
-                foreach (var file in groups[index])
+                var relative = CheckRelativePath(file.RelativePath);
+                lock (seen)
                 {
-                    var relative = CheckRelativePath(file.RelativePath);
-                    lock (seen)
-                    {
-                        if (!seen.Add(relative))
-                            throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
-                    }
-                    writing?.Invoke(relative);
-                    written[index].Add(WriteFile(directory, temporary, relative, file));
-                    if (stopAt?.Invoke(WriteStep.FileWritten) == true)
-                    {
-                        stopped = true;
-                        return;
-                    }
+                    if (!seen.Add(relative))
+                        throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
                 }
+                writing?.Invoke(relative);
+                var done = WriteFile(directory, temporary, relative, file);
+                lock (written) written.Add((group, index, done));
+                return stopAt?.Invoke(WriteStep.FileWritten) != true;
             }
 
-            if (groups.Count == 1 || stopAt is not null || Environment.ProcessorCount == 1)
+            if (stopAt is not null || Environment.ProcessorCount == 1)
             {
-                for (var i = 0; i < groups.Count && !stopped; i++) WriteGroup(i);
-                if (stopped) return null;
+                for (var group = 0; group < groups.Count; group++)
+                {
+                    var index = 0;
+                    foreach (var file in groups[group])
+                        if (!WriteOne(group, index++, file)) return null;
+                }
             }
             else
             {
+                // Every file on its own, as many at a time as there are processors. The files are
+                // taken from the emitters one by one (a streamed file costs nothing until it is
+                // written), so a large output does not wait for the others of its emitter.
+                var files = groups.SelectMany((group, g) => group.Select((file, i) => (Group: g, Index: i, File: file)));
                 try
                 {
-                    Parallel.For(0, groups.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, WriteGroup);
+                    Parallel.ForEach(Partitioner.Create(files, EnumerablePartitionerOptions.NoBuffering),
+                        new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
+                        item => WriteOne(item.Group, item.Index, item.File));
                 }
                 catch (AggregateException failure)
                 {
-                    // The first failure as if the groups had run one after another: its own type and stack.
+                    // The exception itself, as a write one file after another would throw it.
                     System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(failure.InnerExceptions[0]).Throw();
                 }
             }
 
             if (!Swap(directory, target, temporary, ref swapped, stopAt)) return null;
-            return written.SelectMany(group => group).ToList();
+            return written.OrderBy(w => w.Group).ThenBy(w => w.Index).Select(w => w.File).ToList();
         }
         finally
         {

@@ -64,7 +64,8 @@ public static class StPlant
     {
         var point = name.Point;
         void Line(int depth, string line) => text.Append(' ', Indent.Length * depth).Append(line).Append('\n');
-        void Field(int depth, string field, string value, bool last = false) => Line(depth, $"{field} := {value}{(last ? "" : ",")}");
+        void Field(int depth, string field, string value, bool last = false) =>
+            text.Append(' ', Indent.Length * depth).Append(field).Append(" := ").Append(value).Append(last ? "\n" : ",\n");
         void Note(int depth, string comment) => Line(depth, StFile.Comment(comment));
         void RangeFields(string prefix, StRawRange range)
         {
