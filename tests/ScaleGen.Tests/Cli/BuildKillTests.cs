@@ -53,7 +53,7 @@ public sealed class BuildKillTests : IDisposable
     }
 
     [Fact]
-    public void Killing_a_build_mid_write_leaves_the_earlier_outputs_intact_and_the_next_build_recovers()
+    public async Task Killing_a_build_mid_write_leaves_the_earlier_outputs_intact_and_the_next_build_recovers()
     {
         var target = _folder.Combine("out");
         Assert.Equal(0, TestInputs.RunCli(["build", .. TestInputs.ExampleFiles, "-o", target]).ExitCode);
@@ -79,9 +79,10 @@ public sealed class BuildKillTests : IDisposable
         // The next build, a separate process as in CI, removes the leftovers and writes its set.
         using (var next = StartBuild(TestInputs.ExampleFiles, target))
         {
-            var error = next.StandardError.ReadToEndAsync();
-            Assert.True(next.WaitForExit(TimeSpan.FromMinutes(2)), "the next build did not finish");
-            Assert.True(next.ExitCode == 0, $"the next build failed: {error.Result}");
+            using var patience = new CancellationTokenSource(TimeSpan.FromMinutes(2));
+            var error = next.StandardError.ReadToEndAsync(patience.Token);
+            await next.WaitForExitAsync(patience.Token);
+            Assert.True(next.ExitCode == 0, $"the next build failed: {await error}");
         }
         Assert.False(Directory.Exists(temporary), "the next build left the killed build's folder behind");
         Assert.False(Directory.Exists(OutputWriter.SetAsideFolderFor(target)));
