@@ -6,6 +6,7 @@ using ScaleGen.Bench;
 //   bench [--sizes 1000,5000,10000,50000] [--runs 5] [--cold 3]   stopwatch medians and a cold build
 //   micro [BenchmarkDotNet options, e.g. --filter *FrontEnd*]      BenchmarkDotNet, short runs
 //   phases [--points 10000] [--runs 5]                              front-end time and allocations by phase
+//   generate --points N [--seed S] -o DIR                           write an invented site's .scale files
 //   build-once -o DIR FILES...                                      one build; prints the peak working set
 //   verify-1k                                                       verify on a 1,000-point plant, timed phase by phase
 var mode = args.Length > 0 ? args[0] : "bench";
@@ -23,12 +24,21 @@ switch (mode)
     case "phases":
         return Phases.Run(int.Parse(Option(rest, "--points", "10000"), CultureInfo.InvariantCulture),
             int.Parse(Option(rest, "--runs", "5"), CultureInfo.InvariantCulture), Console.Out);
+    case "generate":
+    {
+        var folder = Option(rest, "-o", "site");
+        Directory.CreateDirectory(folder);
+        foreach (var file in ScaleGen.Samples.PlantGenerator.Site(int.Parse(Option(rest, "--points", "10000"), CultureInfo.InvariantCulture),
+                     int.Parse(Option(rest, "--seed", "1"), CultureInfo.InvariantCulture)))
+            File.WriteAllText(Path.Combine(folder, file.Name), file.Text);
+        return 0;
+    }
     case "build-once":
         return MedianBench.BuildOnce(rest);
     case "verify-1k" or "--verify-1k":
         return VerifyPlant.RunTimed();
     default:
-        Console.Error.WriteLine("usage: ScaleGen.Bench [bench [--sizes N,N] [--runs N] [--cold N] | micro [BenchmarkDotNet options] | phases [--points N] [--runs N] | build-once -o DIR FILES | verify-1k]");
+        Console.Error.WriteLine("usage: ScaleGen.Bench [bench [--sizes N,N] [--runs N] [--cold N] | micro [BenchmarkDotNet options] | phases [--points N] [--runs N] | generate --points N [--seed S] -o DIR | build-once -o DIR FILES | verify-1k]");
         return 2;
 }
 

@@ -24,9 +24,15 @@ public static class ScaleGenCli
     public static string Version { get; } =
         typeof(ScaleGenCli).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion.Split('+')[0] ?? "0.0.0";
 
-    public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr) => Run(args, stdout, stderr, errorIsTerminal: false);
+
+    /// <summary>
+    /// <paramref name="errorIsTerminal"/>: stderr is a terminal a person watches, so long
+    /// runs may show progress there. Redirected (a CI log, a file), they stay quiet.
+    /// </summary>
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr, bool errorIsTerminal)
     {
-        var io = new ConsoleIo(stdout, stderr);
+        var io = new ConsoleIo(stdout, stderr) { ErrorIsTerminal = errorIsTerminal };
         // A plain command named "scalegen", not RootCommand: RootCommand takes its name from the
         // running executable, which is ScaleGen.Cli (or a test host), so help would show the wrong name.
         var root = new Command("scalegen", "scalegen: turns .scale analog point files into PLC code, alarm configuration, loop budgets and check sheets.")
@@ -81,4 +87,8 @@ internal sealed class PrintVersion(TextWriter stdout) : System.CommandLine.Invoc
 public sealed class UsageException(string message) : Exception(message);
 
 /// <summary>Where a command writes.</summary>
-public sealed record ConsoleIo(TextWriter Out, TextWriter Error);
+public sealed record ConsoleIo(TextWriter Out, TextWriter Error)
+{
+    /// <summary>stderr is a terminal: progress of long runs may be shown there (see Commands/ProgressLine.cs).</summary>
+    public bool ErrorIsTerminal { get; init; }
+}

@@ -30,17 +30,30 @@ internal static class BuildCommand
             var emitters = Select(result.GetValue(only));
             var directory = result.GetValue(output)!;
 
-            var compilation = Inputs.CompileOrReport(io, result.GetValue(files)!);
+            var sources = Inputs.Load(result.GetValue(files)!);
+            var progress = ProgressLine.For(io, sources.Sum(s => (long)s.Length));
+            progress.Show($"compiling {sources.Count} file{(sources.Count == 1 ? "" : "s")}");
+            var compiled = Compilation.Compile(sources);
+            progress.Clear(); // out of the way of the diagnostics
+            var compilation = Inputs.Report(io, compiled);
             if (compilation is null) return ExitCodes.Failed;
 
             IReadOnlyList<WrittenFile> written;
+            var started = 0;
             try
             {
-                written = OutputWriter.Build(EmitContext.From(compilation), emitters, directory);
+                var points = compilation.Plant.Points.Length;
+                progress.Show($"{points} points compiled; writing outputs");
+                written = OutputWriter.Build(EmitContext.From(compilation), emitters, directory,
+                    writing: file => progress.Show($"writing {file} ({Interlocked.Increment(ref started)} files started)"));
             }
             catch (OutputFolderException problem)
             {
                 throw new UsageException(problem.Message);
+            }
+            finally
+            {
+                progress.Clear();
             }
             foreach (var file in written)
                 io.Error.WriteLine($"wrote {Path.Combine(directory, file.RelativePath)} ({file.Bytes} bytes)");

@@ -45,9 +45,11 @@ internal static class Inputs
     }
 
     /// <summary>Compiles the files and prints diagnostics to stderr; null when there are errors.</summary>
-    public static Compilation? CompileOrReport(ConsoleIo io, IEnumerable<string> paths)
+    public static Compilation? CompileOrReport(ConsoleIo io, IEnumerable<string> paths) => Report(io, Compilation.Compile(Load(paths)));
+
+    /// <summary>Prints a compilation's diagnostics to stderr; null when there are errors.</summary>
+    public static Compilation? Report(ConsoleIo io, Compilation compilation)
     {
-        var compilation = Compilation.Compile(Load(paths));
         if (compilation.Diagnostics.Count > 0)
             io.Error.Write(DiagnosticReport.Text(compilation.Diagnostics));
         if (!compilation.HasErrors) return compilation;

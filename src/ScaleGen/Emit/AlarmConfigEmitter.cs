@@ -1,3 +1,4 @@
+using Newtonsoft.Json;
 using Newtonsoft.Json.Linq;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -28,64 +29,69 @@ public sealed class AlarmConfigEmitter : IOutputEmitter
             ["generated"] = GeneratedJson.Header(context, "Alarm configuration: every analog point with its status handling and alarms."),
             ["plant"] = plant.Title,
             ["cycle_s"] = JsonOutput.Number(plant.CycleSeconds),
-            ["points"] = new JArray(plant.Points.Select(PointObject)),
+            ["points"] = new JArray(), // streamed: one point at a time
         };
-        yield return new GeneratedFile(FileName, JsonOutput.Write(document));
+        yield return new GeneratedFile(FileName, output => JsonOutput.Write(output, document, "points", plant.Points, WritePoint));
     }
 
-    private static JObject PointObject(Point point) => new()
+    private static void WritePoint(JsonWriter w, Point point)
     {
-        ["tag"] = point.Tag,
-        ["identifier"] = point.Identifier,
-        ["description"] = point.Description,
-        ["card"] = point.Card.Name,
-        ["address"] = point.Address,
-        ["measure"] = Word(point.Measure),
-        ["range"] = new JObject
-        {
-            ["lrv"] = JsonOutput.Number(point.Lrv),
-            ["urv"] = JsonOutput.Number(point.Urv),
-            ["unit"] = point.Unit,
-        },
-        ["signal"] = new JObject
-        {
-            ["low_ma"] = JsonOutput.Number(point.SignalLowMa),
-            ["high_ma"] = JsonOutput.Number(point.SignalHighMa),
-            ["square_root"] = point.SquareRoot,
-            ["cutoff_percent"] = JsonOutput.Number(point.SquareRoot ? point.CutoffPercent : 0),
-        },
-        ["status_handling"] = new JObject
-        {
-            ["health"] = Word(point.Health.Kind),
-            ["fault_low_ma"] = JsonOutput.Number(point.Health.FaultLowMa),
-            ["fault_high_ma"] = JsonOutput.Number(point.Health.FaultHighMa),
-            ["on_fault"] = Word(point.OnFault.Kind),
-            // Hold has no fixed value (the last good one); the others substitute a known value.
-            ["on_fault_value"] = point.OnFault.Kind == FaultActionKind.Hold
-                ? JValue.CreateNull()
-                : JsonOutput.Number(FaultActions.Substitute(point, lastGood: null)),
-            ["filter_s"] = JsonOutput.Number(point.FilterSeconds),
-        },
-        ["alarms"] = new JArray(AlarmMath.AlarmPoints(point).Select(trip => AlarmObject(point, trip))),
-    };
+        w.WriteStartObject();
+        w.Field("tag", point.Tag);
+        w.Field("identifier", point.Identifier);
+        w.Field("description", point.Description);
+        w.Field("card", point.Card.Name);
+        w.Field("address", point.Address);
+        w.Field("measure", Word(point.Measure));
+        w.WritePropertyName("range");
+        w.WriteStartObject();
+        w.NumberField("lrv", point.Lrv);
+        w.NumberField("urv", point.Urv);
+        w.Field("unit", point.Unit);
+        w.WriteEndObject();
+        w.WritePropertyName("signal");
+        w.WriteStartObject();
+        w.NumberField("low_ma", point.SignalLowMa);
+        w.NumberField("high_ma", point.SignalHighMa);
+        w.Field("square_root", point.SquareRoot);
+        w.NumberField("cutoff_percent", point.SquareRoot ? point.CutoffPercent : 0);
+        w.WriteEndObject();
+        w.WritePropertyName("status_handling");
+        w.WriteStartObject();
+        w.Field("health", Word(point.Health.Kind));
+        w.NumberField("fault_low_ma", point.Health.FaultLowMa);
+        w.NumberField("fault_high_ma", point.Health.FaultHighMa);
+        w.Field("on_fault", Word(point.OnFault.Kind));
+        // Hold has no fixed value (the last good one); the others substitute a known value.
+        w.NumberField("on_fault_value", point.OnFault.Kind == FaultActionKind.Hold ? null : FaultActions.Substitute(point, lastGood: null));
+        w.NumberField("filter_s", point.FilterSeconds);
+        w.WriteEndObject();
+        w.WritePropertyName("alarms");
+        w.WriteStartArray();
+        foreach (var trip in AlarmMath.AlarmPoints(point)) WriteAlarm(w, point, trip);
+        w.WriteEndArray();
+        w.WriteEndObject();
+    }
 
-    private static JObject AlarmObject(Point point, AlarmPoint trip) => new()
+    private static void WriteAlarm(JsonWriter w, Point point, AlarmPoint trip)
     {
-        ["kind"] = trip.Alarm.Kind.ToString(),
-        ["setpoint"] = JsonOutput.Number(trip.TripValue),
-        ["deadband"] = JsonOutput.Number(trip.Alarm.Deadband),
-        ["reset_value"] = JsonOutput.Number(trip.ResetValue),
-        ["on_delay_s"] = JsonOutput.Number(trip.Alarm.OnDelaySeconds),
-        ["off_delay_s"] = JsonOutput.Number(trip.Alarm.OffDelaySeconds),
-        ["priority"] = trip.Alarm.Priority,
-        ["message"] = AlarmMessages.For(point, trip.Alarm),
-        ["trip_ma"] = FiniteOrNull(trip.TripMa),
-        ["reset_ma"] = FiniteOrNull(trip.ResetMa),
-        ["trip_raw"] = trip.TripRaw is { } tripRaw ? new JValue(tripRaw) : JValue.CreateNull(),
-        ["trip_raw_test"] = TestWord(trip.TripCondition.Test),
-        ["reset_raw"] = trip.ResetRaw is { } resetRaw ? new JValue(resetRaw) : JValue.CreateNull(),
-        ["reset_raw_test"] = TestWord(trip.ClearCondition.Test),
-    };
+        w.WriteStartObject();
+        w.Field("kind", trip.Alarm.Kind.ToString());
+        w.NumberField("setpoint", trip.TripValue);
+        w.NumberField("deadband", trip.Alarm.Deadband);
+        w.NumberField("reset_value", trip.ResetValue);
+        w.NumberField("on_delay_s", trip.Alarm.OnDelaySeconds);
+        w.NumberField("off_delay_s", trip.Alarm.OffDelaySeconds);
+        w.Field("priority", trip.Alarm.Priority);
+        w.Field("message", AlarmMessages.For(point, trip.Alarm));
+        w.NumberField("trip_ma", FiniteOrNull(trip.TripMa));
+        w.NumberField("reset_ma", FiniteOrNull(trip.ResetMa));
+        w.Field("trip_raw", trip.TripRaw);
+        w.Field("trip_raw_test", TestWord(trip.TripCondition.Test));
+        w.Field("reset_raw", trip.ResetRaw);
+        w.Field("reset_raw_test", TestWord(trip.ClearCondition.Test));
+        w.WriteEndObject();
+    }
 
     /// <summary>How the raw count compares with trip_raw / reset_raw: at_least, at_most, or never / always inside the card limits.</summary>
     private static string TestWord(RawTest test) => test switch
@@ -100,8 +106,7 @@ public sealed class AlarmConfigEmitter : IOutputEmitter
     /// A setpoint absurdly far outside a tiny span can put the trip current beyond what a
     /// double holds; JSON has no infinity, so such a current is written as null.
     /// </summary>
-    private static JToken FiniteOrNull(double value) =>
-        double.IsFinite(value) ? JsonOutput.Number(value) : JValue.CreateNull();
+    private static double? FiniteOrNull(double value) => double.IsFinite(value) ? value : null;
 
     private static string Word<T>(T value) where T : struct, Enum => value.ToString().ToLowerInvariant();
 }

@@ -55,8 +55,10 @@ public static class FieldText
     {
         // Half away from zero, as people round by hand (the default would round to even).
         var rounded = Math.Round(value, decimals, MidpointRounding.AwayFromZero);
-        return (rounded == 0 ? 0.0 : rounded).ToString("F" + decimals.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
+        return (rounded == 0 ? 0.0 : rounded).ToString(FixedFormats[decimals], CultureInfo.InvariantCulture);
     }
+
+    private static readonly string[] FixedFormats = ["F0", "F1", "F2", "F3", "F4"];
 
     /// <summary>The generated header and a caution, as the lines of a plain-text or CSV file starts with (without the comment mark).</summary>
     public static IEnumerable<string> HeaderLines(EmitContext context, string what, IEnumerable<string> caution) =>

@@ -15,12 +15,45 @@ public static class JsonOutput
     {
         var builder = new StringBuilder();
         using (var text = new StringWriter(builder, CultureInfo.InvariantCulture) { NewLine = "\n" })
-        using (var writer = new JsonTextWriter(text) { Formatting = Formatting.Indented, Indentation = 2, Culture = CultureInfo.InvariantCulture })
+        using (var writer = Writer(text))
         {
             token.WriteTo(writer);
         }
         return builder.Append('\n').ToString();
     }
+
+    /// <summary>
+    /// Writes <paramref name="document"/> exactly as <see cref="Write(JToken)"/> would, except
+    /// that the array under <paramref name="arrayName"/> (left empty in the document) is
+    /// written from <paramref name="items"/> by <paramref name="writeItem"/>, one at a time:
+    /// a document of 50,000 points is never built whole. <paramref name="output"/> must end
+    /// lines with '\n'.
+    /// </summary>
+    public static void Write<T>(TextWriter output, JObject document, string arrayName, IEnumerable<T> items, Action<JsonWriter, T> writeItem)
+    {
+        using (var writer = Writer(output))
+        {
+            writer.CloseOutput = false;
+            writer.WriteStartObject();
+            foreach (var property in document.Properties())
+            {
+                if (property.Name != arrayName)
+                {
+                    property.WriteTo(writer);
+                    continue;
+                }
+                writer.WritePropertyName(arrayName);
+                writer.WriteStartArray();
+                foreach (var item in items) writeItem(writer, item);
+                writer.WriteEndArray();
+            }
+            writer.WriteEndObject();
+        }
+        output.Write('\n');
+    }
+
+    private static JsonTextWriter Writer(TextWriter text) =>
+        new(text) { Formatting = Formatting.Indented, Indentation = 2, Culture = CultureInfo.InvariantCulture };
 
     /// <summary>
     /// A double as a JSON number, rounded to 10 decimals so that binary noise such as
@@ -34,4 +67,75 @@ public static class JsonOutput
     }
 
     public static JToken Number(double? value) => value is { } v ? Number(v) : JValue.CreateNull();
+
+    /// <summary>
+    /// What <paramref name="writeItem"/> writes for each item, as a JArray. Emitters write
+    /// their JSON straight to a writer (building a JObject per point costs several times
+    /// more); commands that want the tree get it from the same code through this.
+    /// </summary>
+    public static JArray Array<T>(IEnumerable<T> items, Action<JsonWriter, T> writeItem)
+    {
+        using var writer = new JTokenWriter();
+        writer.WriteStartArray();
+        foreach (var item in items) writeItem(writer, item);
+        writer.WriteEndArray();
+        return (JArray)writer.Token!;
+    }
+
+    // Fields for emitters that write JSON straight to a writer: the same tokens the JObject
+    // forms above make, so the text is the same either way.
+
+    /// <summary>A number as <see cref="Number(double)"/> makes it.</summary>
+    public static void NumberField(this JsonWriter writer, string name, double value)
+    {
+        writer.WritePropertyName(name);
+        WriteNumber(writer, value);
+    }
+
+    public static void NumberField(this JsonWriter writer, string name, double? value)
+    {
+        writer.WritePropertyName(name);
+        if (value is { } v) WriteNumber(writer, v);
+        else writer.WriteNull();
+    }
+
+    public static void WriteNumber(this JsonWriter writer, double value)
+    {
+        if (!double.IsFinite(value)) throw new ArgumentOutOfRangeException(nameof(value), "JSON has no NaN or infinity.");
+        if (Math.Abs(value) < 1e15) value = Math.Round(value, 10);
+        if (Math.Abs(value) < 1e15 && Math.Floor(value) == value) writer.WriteValue((long)value);
+        else writer.WriteValue(value);
+    }
+
+    public static void Field(this JsonWriter writer, string name, string? value)
+    {
+        writer.WritePropertyName(name);
+        writer.WriteValue(value);
+    }
+
+    public static void Field(this JsonWriter writer, string name, bool value)
+    {
+        writer.WritePropertyName(name);
+        writer.WriteValue(value);
+    }
+
+    public static void Field(this JsonWriter writer, string name, bool? value)
+    {
+        writer.WritePropertyName(name);
+        if (value is { } v) writer.WriteValue(v);
+        else writer.WriteNull();
+    }
+
+    public static void Field(this JsonWriter writer, string name, long value)
+    {
+        writer.WritePropertyName(name);
+        writer.WriteValue(value);
+    }
+
+    public static void Field(this JsonWriter writer, string name, long? value)
+    {
+        writer.WritePropertyName(name);
+        if (value is { } v) writer.WriteValue(v);
+        else writer.WriteNull();
+    }
 }

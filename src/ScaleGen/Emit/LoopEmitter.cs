@@ -16,8 +16,12 @@ public sealed class LoopEmitter : IOutputEmitter
     {
         var rows = LoopReport.Rows(context.Plant);
         var header = string.Concat(GeneratedHeader.Lines(context, What).Select(line => "# " + line + "\n"));
-        yield return new GeneratedFile(TextFile, header + "\n" + LoopReport.Table(rows));
-        yield return new GeneratedFile(JsonFile,
-            JsonOutput.Write(LoopReport.Json(rows, GeneratedJson.Header(context, What))));
+        yield return new GeneratedFile(TextFile, output =>
+        {
+            output.Write(header);
+            output.Write('\n');
+            LoopReport.Table(output, rows);
+        });
+        yield return new GeneratedFile(JsonFile, output => LoopReport.Json(output, rows, GeneratedJson.Header(context, What)));
     }
 }

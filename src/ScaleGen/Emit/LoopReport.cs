@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text;
+using Newtonsoft.Json;
 using Newtonsoft.Json.Linq;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -76,7 +77,10 @@ public static class LoopReport
     ];
 
     /// <summary>The aligned table with its legend and caution.</summary>
-    public static string Table(IReadOnlyList<LoopRow> rows)
+    public static string Table(IReadOnlyList<LoopRow> rows) => TextChunks.Render(output => Table(output, rows));
+
+    /// <summary>The same table, streamed.</summary>
+    public static void Table(TextWriter output, IReadOnlyList<LoopRow> rows)
     {
         var builder = new StringBuilder();
         if (rows.Count == 0)
@@ -121,7 +125,11 @@ public static class LoopReport
             string Line(string[] cells) => string.Join("  ", cells.Select((c, i) =>
                 leftAligned.Contains(i) ? c.PadRight(widths[i]) : c.PadLeft(widths[i]))).TrimEnd();
             builder.Append(Line(headers)).Append('\n').Append(Line(units)).Append('\n');
-            foreach (var line in lines) builder.Append(Line(line)).Append('\n');
+            foreach (var line in lines)
+            {
+                builder.Append(Line(line)).Append('\n');
+                TextChunks.Spill(builder, output);
+            }
 
             var failed = rows.Count(r => !r.Budget.Ok);
             var hart = rows.Count(r => r.Budget.HartOk == false);
@@ -134,7 +142,7 @@ public static class LoopReport
         }
         builder.Append('\n');
         foreach (var line in FieldText.CautionLines(FieldText.LoopCaution)) builder.Append(line).Append('\n');
-        return builder.ToString();
+        TextChunks.Spill(builder, output, all: true);
     }
 
     private static string CableText(LoopRow row) =>
@@ -149,41 +157,51 @@ public static class LoopReport
     /// </summary>
     public static JObject Json(IReadOnlyList<LoopRow> rows, JObject? generated = null)
     {
+        var document = Document(rows, generated);
+        document["loops"] = JsonOutput.Array(rows, WriteRow);
+        return document;
+    }
+
+    /// <summary>The same JSON, streamed row by row.</summary>
+    public static void Json(TextWriter output, IReadOnlyList<LoopRow> rows, JObject? generated = null) =>
+        JsonOutput.Write(output, Document(rows, generated), "loops", rows, WriteRow);
+
+    private static JObject Document(IReadOnlyList<LoopRow> rows, JObject? generated)
+    {
         var document = new JObject();
         if (generated is not null) document["generated"] = generated;
-        document["loops"] = new JArray(rows.Select(RowJson));
+        document["loops"] = new JArray();
         document["ok"] = AllOk(rows);
         document["caution"] = string.Join(" ", FieldText.LoopCaution);
         return document;
     }
 
-    private static JObject RowJson(LoopRow row)
+    private static void WriteRow(JsonWriter w, LoopRow row)
     {
         var b = row.Budget;
-        return new JObject
-        {
-            ["point"] = row.Point.Tag,
-            ["supply_v"] = JsonOutput.Number(b.SupplyVolts),
-            ["device_v"] = JsonOutput.Number(b.DeviceVolts),
-            ["current_ma"] = JsonOutput.Number(b.CurrentMa),
-            ["card_ohm"] = JsonOutput.Number(b.CardOhms),
-            ["shunt_ohm"] = JsonOutput.Number(b.ShuntOhms),
-            ["barrier_ohm"] = JsonOutput.Number(b.BarrierOhms),
-            ["cable_m"] = JsonOutput.Number(row.CableMetres),
-            ["conductor"] = row.Conductor is { } conductor ? conductor.ToString() : JValue.CreateNull(),
-            ["conductor_ohm_per_km"] = JsonOutput.Number(row.OhmPerKm),
-            ["cable_ohm"] = JsonOutput.Number(b.CableOhms),
-            ["extra_ohm"] = JsonOutput.Number(b.ExtraOhms),
-            ["total_ohm"] = JsonOutput.Number(b.TotalOhms),
-            ["max_ohm"] = JsonOutput.Number(b.MaxOhms),
-            ["min_supply_v"] = JsonOutput.Number(b.MinSupplyVolts),
-            ["margin_v"] = JsonOutput.Number(b.MarginVolts),
-            ["hart"] = b.HartOk is not null,
-            ["hart_ok"] = b.HartOk is { } hartOk ? hartOk : JValue.CreateNull(),
-            ["upscale_fault_ma"] = JsonOutput.Number(b.UpscaleFaultMa),
-            ["upscale_min_supply_v"] = JsonOutput.Number(row.UpscaleMinSupplyVolts),
-            ["upscale_ok"] = b.UpscaleFaultOk is { } upOk ? upOk : JValue.CreateNull(),
-            ["ok"] = b.Ok,
-        };
+        w.WriteStartObject();
+        w.Field("point", row.Point.Tag);
+        w.NumberField("supply_v", b.SupplyVolts);
+        w.NumberField("device_v", b.DeviceVolts);
+        w.NumberField("current_ma", b.CurrentMa);
+        w.NumberField("card_ohm", b.CardOhms);
+        w.NumberField("shunt_ohm", b.ShuntOhms);
+        w.NumberField("barrier_ohm", b.BarrierOhms);
+        w.NumberField("cable_m", row.CableMetres);
+        w.Field("conductor", row.Conductor?.ToString());
+        w.NumberField("conductor_ohm_per_km", row.OhmPerKm);
+        w.NumberField("cable_ohm", b.CableOhms);
+        w.NumberField("extra_ohm", b.ExtraOhms);
+        w.NumberField("total_ohm", b.TotalOhms);
+        w.NumberField("max_ohm", b.MaxOhms);
+        w.NumberField("min_supply_v", b.MinSupplyVolts);
+        w.NumberField("margin_v", b.MarginVolts);
+        w.Field("hart", b.HartOk is not null);
+        w.Field("hart_ok", b.HartOk);
+        w.NumberField("upscale_fault_ma", b.UpscaleFaultMa);
+        w.NumberField("upscale_min_supply_v", row.UpscaleMinSupplyVolts);
+        w.Field("upscale_ok", b.UpscaleFaultOk);
+        w.Field("ok", b.Ok);
+        w.WriteEndObject();
     }
 }

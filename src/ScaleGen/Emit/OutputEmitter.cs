@@ -5,8 +5,47 @@ using ScaleGen.Text;
 
 namespace ScaleGen.Emit;
 
-/// <summary>One file an emitter produces: a path relative to the output folder, and its text.</summary>
-public sealed record GeneratedFile(string RelativePath, string Content);
+/// <summary>
+/// One file an emitter produces: a path relative to the output folder, and its text. A large
+/// output can instead be written piece by piece (<see cref="GeneratedFile(string, Action{TextWriter})"/>):
+/// `build` then streams it into the output folder and never holds it whole, which keeps a
+/// plant of 50,000 points (hundreds of MB of outputs) within memory.
+/// </summary>
+public sealed record GeneratedFile
+{
+    private readonly Action<TextWriter>? _write;
+    private string? _content;
+
+    public GeneratedFile(string relativePath, string content)
+    {
+        RelativePath = relativePath;
+        _content = content;
+    }
+
+    /// <summary>
+    /// A file written by <paramref name="write"/>, which may be called more than once and must
+    /// write the same text each time, also while other files of the same emitter are being
+    /// written on other threads (so it only reads what they share). It ends lines with '\n'
+    /// itself (never WriteLine).
+    /// </summary>
+    public GeneratedFile(string relativePath, Action<TextWriter> write)
+    {
+        RelativePath = relativePath;
+        _write = write;
+    }
+
+    public string RelativePath { get; init; }
+
+    /// <summary>The whole text; a streamed file is rendered into a string when this is first read.</summary>
+    public string Content => _content ??= TextChunks.Render(_write!);
+
+    /// <summary>Writes the text, streamed if it can be.</summary>
+    public void WriteTo(TextWriter writer)
+    {
+        if (_content is not null) writer.Write(_content);
+        else _write!(writer);
+    }
+}
 
 /// <summary>What every emitter is given: the bound plant, the diagnostics, the tool version.</summary>
 public sealed record EmitContext(Plant Plant, IReadOnlyList<Diagnostic> Diagnostics, string ToolVersion)

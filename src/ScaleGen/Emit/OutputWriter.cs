@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using System.Text;
 
 namespace ScaleGen.Emit;
@@ -54,9 +55,15 @@ public static class OutputWriter
 
     private static readonly UTF8Encoding Utf8NoBom = new(encoderShouldEmitUTF8Identifier: false);
 
-    /// <summary>Runs the emitters one after another and writes their files all or nothing.</summary>
+    /// <summary>
+    /// Runs the emitters and writes their files all or nothing. Files are written side by
+    /// side, and the list comes back in catalog order.
+    /// <paramref name="writing"/>, if given, hears the name of each file as its writing
+    /// starts, from whichever thread writes it.
+    /// </summary>
     /// <exception cref="OutputFolderException">The folder cannot be used or written, or holds one of the input files.</exception>
-    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory)
+    public static IReadOnlyList<WrittenFile> Build(EmitContext context, IEnumerable<IOutputEmitter> emitters, string directory,
+        Action<string>? writing = null)
     {
         // The folder is replaced whole: a source kept inside it would be deleted.
         var target = FullPath(directory) + Path.DirectorySeparatorChar;
@@ -65,7 +72,8 @@ public static class OutputWriter
             if (Path.GetFullPath(source.Path).StartsWith(target, OperatingSystem.IsLinux() ? StringComparison.Ordinal : StringComparison.OrdinalIgnoreCase))
                 throw new OutputFolderException($"'{directory}' holds the input file '{source.Path}', and a build replaces the whole folder; give another output folder");
         }
-        return Write(directory, emitters.SelectMany(emitter => emitter.Emit(context)));
+        var groups = emitters.Select(emitter => emitter.Emit(context)).ToList();
+        return Write(directory, groups, stopAt: null, writing)!;
     }
 
     /// <summary>
@@ -75,7 +83,7 @@ public static class OutputWriter
     /// </summary>
     /// <exception cref="OutputFolderException">The folder cannot be used or written.</exception>
     public static IReadOnlyList<WrittenFile> Write(string directory, IEnumerable<GeneratedFile> files) =>
-        Write(directory, files, stopAt: null)!;
+        Write(directory, [files], stopAt: null, writing: null)!;
 
     /// <summary>The folder a write fills before the swap.</summary>
     public static string TemporaryFolderFor(string directory) => Sibling(directory, "scalegen-new");
@@ -98,7 +106,17 @@ public static class OutputWriter
     /// The write, with a test hook: when <paramref name="stopAt"/> returns true the write
     /// returns null at once, leaving everything as a killed process would.
     /// </summary>
-    internal static IReadOnlyList<WrittenFile>? Write(string directory, IEnumerable<GeneratedFile> files, Func<WriteStep, bool>? stopAt)
+    internal static IReadOnlyList<WrittenFile>? Write(string directory, IEnumerable<GeneratedFile> files, Func<WriteStep, bool>? stopAt) =>
+        Write(directory, [files], stopAt, writing: null);
+
+    /// <summary>
+    /// The write. The groups of files (one per emitter) are read lazily and the files written
+    /// in parallel, unless a test hook watches the steps; the list that comes back is in group
+    /// and file order. A failure anywhere leaves the folder as it was, and its exception comes
+    /// out unchanged.
+    /// </summary>
+    private static IReadOnlyList<WrittenFile>? Write(string directory, IReadOnlyList<IEnumerable<GeneratedFile>> groups,
+        Func<WriteStep, bool>? stopAt, Action<string>? writing)
     {
         var target = FullPath(directory);
         using var _ = Lock(directory, target);
@@ -106,7 +124,6 @@ public static class OutputWriter
         CheckReplaceable(directory, target);
 
         var temporary = TemporaryFolderFor(target);
-        var written = new List<WrittenFile>();
         var swapped = false;
         try
         {
@@ -116,29 +133,73 @@ public static class OutputWriter
                 File.WriteAllText(Path.Combine(temporary, MarkerFileName), MarkerText, Utf8NoBom);
             });
             var seen = new HashSet<string>(StringComparer.OrdinalIgnoreCase) { MarkerFileName };
-            foreach (var file in files)
+            var written = new List<(int Group, int Index, WrittenFile File)>();
+
+            bool WriteOne(int group, int index, GeneratedFile file)
             {
                 var relative = CheckRelativePath(file.RelativePath);
-                if (!seen.Add(relative))
-                    throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
-                var bytes = Utf8NoBom.GetBytes(file.Content);
-                Io(directory, () =>
+                lock (seen)
                 {
-                    var path = Path.Combine(temporary, relative);
-                    Directory.CreateDirectory(Path.GetDirectoryName(path)!);
-                    File.WriteAllBytes(path, bytes);
-                });
-                written.Add(new WrittenFile(relative, bytes.Length));
-                if (stopAt?.Invoke(WriteStep.FileWritten) == true) return null;
+                    if (!seen.Add(relative))
+                        throw new InvalidOperationException($"Two outputs want the same file '{relative}'.");
+                }
+                writing?.Invoke(relative);
+                var done = WriteFile(directory, temporary, relative, file);
+                lock (written) written.Add((group, index, done));
+                return stopAt?.Invoke(WriteStep.FileWritten) != true;
+            }
+
+            if (stopAt is not null || Environment.ProcessorCount == 1)
+            {
+                for (var group = 0; group < groups.Count; group++)
+                {
+                    var index = 0;
+                    foreach (var file in groups[group])
+                        if (!WriteOne(group, index++, file)) return null;
+                }
+            }
+            else
+            {
+                // Every file on its own, as many at a time as there are processors. The files are
+                // taken from the emitters one by one (a streamed file costs nothing until it is
+                // written), so a large output does not wait for the others of its emitter.
+                var files = groups.SelectMany((group, g) => group.Select((file, i) => (Group: g, Index: i, File: file)));
+                try
+                {
+                    Parallel.ForEach(Partitioner.Create(files, EnumerablePartitionerOptions.NoBuffering),
+                        new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount },
+                        item => WriteOne(item.Group, item.Index, item.File));
+                }
+                catch (AggregateException failure)
+                {
+                    // The exception itself, as a write one file after another would throw it.
+                    System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(failure.InnerExceptions[0]).Throw();
+                }
             }
 
             if (!Swap(directory, target, temporary, ref swapped, stopAt)) return null;
+            return written.OrderBy(w => w.Group).ThenBy(w => w.Index).Select(w => w.File).ToList();
         }
         finally
         {
             if (!swapped) DeleteQuietly(temporary);
         }
-        return written;
+    }
+
+    /// <summary>Streams one file into the temporary folder as UTF-8 without a byte-order mark.</summary>
+    private static WrittenFile WriteFile(string directory, string temporary, string relative, GeneratedFile file)
+    {
+        long bytes = 0;
+        Io(directory, () =>
+        {
+            var path = Path.Combine(temporary, relative);
+            Directory.CreateDirectory(Path.GetDirectoryName(path)!);
+            using var stream = new FileStream(path, FileMode.CreateNew, FileAccess.Write, FileShare.None, 1 << 16);
+            using (var writer = new StreamWriter(stream, Utf8NoBom, 1 << 16, leaveOpen: true) { NewLine = "\n" })
+                file.WriteTo(writer);
+            bytes = stream.Length;
+        });
+        return new WrittenFile(relative, bytes);
     }
 
     /// <summary>Rename the old folder aside, the new one into place, delete the old. False when the test hook stopped it.</summary>

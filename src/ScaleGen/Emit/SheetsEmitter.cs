@@ -19,10 +19,11 @@ public sealed class SheetsEmitter : IOutputEmitter
     public IEnumerable<GeneratedFile> Emit(EmitContext context)
     {
         var sheets = CheckSheets.For(context.Plant);
+        // Streamed: with tens of thousands of points each of these is hundreds of MB.
         yield return new GeneratedFile(CsvFile,
-            SheetsReport.Csv(sheets, FieldText.HeaderLines(context, What, FieldText.SheetCaution)));
-        yield return new GeneratedFile(HtmlFile, SheetsHtml.Page(context, sheets, What));
+            output => SheetsReport.Csv(output, sheets, FieldText.HeaderLines(context, What, FieldText.SheetCaution)));
+        yield return new GeneratedFile(HtmlFile, output => SheetsHtml.Page(output, context, sheets, What));
         yield return new GeneratedFile(JsonFile,
-            JsonOutput.Write(SheetsReport.Json(sheets, GeneratedJson.Header(context, What))));
+            output => SheetsReport.Json(output, sheets, GeneratedJson.Header(context, What)));
     }
 }

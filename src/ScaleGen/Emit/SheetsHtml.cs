@@ -43,7 +43,11 @@ public static class SheetsHtml
         footer { font-size: 7pt; color: #333; margin-top: 2mm; }
         """;
 
-    public static string Page(EmitContext context, IReadOnlyList<PointSheet> sheets, string what)
+    public static string Page(EmitContext context, IReadOnlyList<PointSheet> sheets, string what) =>
+        TextChunks.Render(output => Page(output, context, sheets, what));
+
+    /// <summary>The same page, streamed a few points at a time.</summary>
+    public static void Page(TextWriter output, EmitContext context, IReadOnlyList<PointSheet> sheets, string what)
     {
         var html = new StringBuilder();
         html.Append("<!DOCTYPE html>\n<!--\n");
@@ -71,11 +75,15 @@ public static class SheetsHtml
             .Append("<li>Band tests must show the status named. Alarms: move the current slowly the way <em>Trips when mA</em> says until the alarm trips, then back until it resets (deadband applied); hold each current for the on / off delay.</li>\n")
             .Append("</ul>\n");
 
-        foreach (var sheet in sheets) Section(html, sheet);
+        foreach (var sheet in sheets)
+        {
+            Section(html, sheet);
+            TextChunks.Spill(html, output);
+        }
 
         html.Append("<footer>").Append(E($"{sheets.Count} point{(sheets.Count == 1 ? "" : "s")}.")).Append("</footer>\n");
         html.Append("</body>\n</html>\n");
-        return html.ToString();
+        TextChunks.Spill(html, output, all: true);
     }
 
     private static void Section(StringBuilder html, PointSheet sheet)
@@ -93,7 +101,7 @@ public static class SheetsHtml
 
         // Five-point test.
         html.Append("<table class=\"steps\">\n<caption>Five-point test</caption>\n")
-            .Append(Cols(9, 11, 10, 10, 14, 10, 12, 12, 12))
+            .Append(StepColumns)
             .Append("<tr><th>Signal %</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Expected ").Append(unit)
             .Append("</th><th>± ").Append(unit).Append("</th><th>Found raw</th><th>Found value</th><th>Left value</th></tr>\n");
         foreach (var step in sheet.Steps)
@@ -108,7 +116,7 @@ public static class SheetsHtml
         if (sheet.FaultTests.Length > 0 || sheet.Untestable.Length > 0)
         {
             html.Append("<table class=\"bands\">\n<caption>Status band tests</caption>\n")
-                .Append(Cols(14, 11, 10, 10, 19, 12, 12, 12))
+                .Append(BandColumns)
                 .Append("<tr><th>Must show</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Value shown ").Append(unit).Append("</th><th>Found status</th><th>Found value</th><th>Left status</th></tr>\n");
             foreach (var (status, test, untestable) in sheet.Bands)
             {
@@ -128,7 +136,7 @@ public static class SheetsHtml
         if (sheet.Trips.Length > 0)
         {
             html.Append("<table class=\"trips\">\n<caption>Alarm trip and reset</caption>\n")
-                .Append(Cols(6, 8, 8, 8, 8, 8, 8, 8, 8, 8, 7, 7, 8))
+                .Append(TripColumns)
                 .Append("<tr><th>Alarm</th><th>Setpoint ").Append(unit).Append("</th><th>Trip mA</th><th>Trip raw</th><th>Reset ")
                 .Append(unit).Append("</th><th>Reset mA</th><th>Reset raw</th><th>Trips when mA</th><th>Delay on / off s</th>")
                 .Append("<th>Found trip mA</th><th>Found reset mA</th><th>Left trip mA</th><th>Left reset mA</th></tr>\n");
@@ -154,6 +162,12 @@ public static class SheetsHtml
         return text.Length > 0 ? char.ToUpperInvariant(text[0]) + text[1..] : text;
     }
 
+    // The same for every point: made once, not per point of a large plant.
+    private static readonly string StepColumns = Cols(9, 11, 10, 10, 14, 10, 12, 12, 12);
+    private static readonly string BandColumns = Cols(14, 11, 10, 10, 19, 12, 12, 12);
+    private static readonly string TripColumns = Cols(6, 8, 8, 8, 8, 8, 8, 8, 8, 8, 7, 7, 8);
+    private static readonly string[] Blanks = Enumerable.Range(0, 5).Select(n => string.Concat(Enumerable.Repeat("<td class=\"entry\"></td>", n))).ToArray();
+
     private static string Cols(params int[] percents) =>
         "<colgroup>" + string.Concat(percents.Select(p => $"<col style=\"width:{p.ToString(System.Globalization.CultureInfo.InvariantCulture)}%\">")) + "</colgroup>\n";
 
@@ -161,7 +175,7 @@ public static class SheetsHtml
 
     private static string N(string text) => $"<td class=\"n\">{E(text)}</td>";
 
-    private static string Blank(int count) => string.Concat(Enumerable.Repeat("<td class=\"entry\"></td>", count));
+    private static string Blank(int count) => Blanks[count];
 
     private static string E(string text) => WebUtility.HtmlEncode(text);
 }

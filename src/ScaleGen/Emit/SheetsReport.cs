@@ -2,6 +2,7 @@ using System.Globalization;
 using System.Text;
 using CsvHelper;
 using CsvHelper.Configuration;
+using Newtonsoft.Json;
 using Newtonsoft.Json.Linq;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -89,68 +90,98 @@ public static class SheetsReport
     /// </summary>
     public static JObject Json(IReadOnlyList<PointSheet> sheets, JObject? generated = null)
     {
-        var document = new JObject();
-        if (generated is not null) document["generated"] = generated;
-        document["caution"] = string.Join(" ", FieldText.SheetCaution);
-        document["points"] = new JArray(sheets.Select(PointJson));
+        var document = Document(generated);
+        document["points"] = JsonOutput.Array(sheets, WritePoint);
         return document;
     }
 
-    private static JObject PointJson(PointSheet sheet)
+    /// <summary>The same JSON, streamed point by point.</summary>
+    public static void Json(TextWriter output, IReadOnlyList<PointSheet> sheets, JObject? generated = null) =>
+        JsonOutput.Write(output, Document(generated), "points", sheets, WritePoint);
+
+    private static JObject Document(JObject? generated)
+    {
+        var document = new JObject();
+        if (generated is not null) document["generated"] = generated;
+        document["caution"] = string.Join(" ", FieldText.SheetCaution);
+        document["points"] = new JArray();
+        return document;
+    }
+
+    private static void WritePoint(JsonWriter w, PointSheet sheet)
     {
         var point = sheet.Point;
-        return new JObject
+        w.WriteStartObject();
+        w.Field("point", point.Tag);
+        w.Field("description", point.Description);
+        w.Field("card", point.Card.Name);
+        w.Field("address", point.Address);
+        w.Field("unit", point.Unit);
+        w.NumberField("lrv", point.Lrv);
+        w.NumberField("urv", point.Urv);
+        w.NumberField("signal_low_ma", point.SignalLowMa);
+        w.NumberField("signal_high_ma", point.SignalHighMa);
+        w.Field("sqrt", point.SquareRoot);
+        w.NumberField("tolerance_percent", point.TolerancePercent);
+        w.WritePropertyName("steps");
+        w.WriteStartArray();
+        foreach (var s in sheet.Steps)
         {
-            ["point"] = point.Tag,
-            ["description"] = point.Description,
-            ["card"] = point.Card.Name,
-            ["address"] = point.Address,
-            ["unit"] = point.Unit,
-            ["lrv"] = JsonOutput.Number(point.Lrv),
-            ["urv"] = JsonOutput.Number(point.Urv),
-            ["signal_low_ma"] = JsonOutput.Number(point.SignalLowMa),
-            ["signal_high_ma"] = JsonOutput.Number(point.SignalHighMa),
-            ["sqrt"] = point.SquareRoot,
-            ["tolerance_percent"] = JsonOutput.Number(point.TolerancePercent),
-            ["steps"] = new JArray(sheet.Steps.Select(s => new JObject
-            {
-                ["percent"] = JsonOutput.Number(s.Percent),
-                ["ma"] = JsonOutput.Number(s.Ma),
-                ["volts"] = JsonOutput.Number(s.Volts),
-                ["raw"] = s.Raw,
-                ["value"] = JsonOutput.Number(s.Value),
-                ["tolerance"] = JsonOutput.Number(s.Tolerance),
-            })),
-            ["fault_tests"] = new JArray(sheet.FaultTests.Select(f => new JObject
-            {
-                ["status"] = f.Status.ToString(),
-                ["ma"] = JsonOutput.Number(f.Ma),
-                ["volts"] = JsonOutput.Number(f.Volts),
-                ["raw"] = f.Raw,
-                ["value"] = JsonOutput.Number(f.Value),
-                ["holds_last_good"] = f.HoldsLastGood,
-            })),
-            ["untestable"] = new JArray(sheet.Untestable.Select(u => new JObject
-            {
-                ["status"] = u.Status.ToString(),
-                ["reason"] = u.Reason,
-            })),
-            ["trips"] = new JArray(sheet.Trips.Select(t => new JObject
-            {
-                ["alarm"] = t.Alarm.Kind.ToString(),
-                ["setpoint"] = JsonOutput.Number(t.Setpoint),
-                ["trip_ma"] = JsonOutput.Number(t.TripMa),
-                ["reset_ma"] = JsonOutput.Number(t.ResetMa),
-                ["reset_value"] = JsonOutput.Number(t.ResetValue),
-                ["trip_volts"] = JsonOutput.Number(t.TripVolts),
-                ["reset_volts"] = JsonOutput.Number(t.ResetVolts),
-                ["trip_raw"] = t.TripRaw is { } tr ? tr : JValue.CreateNull(),
-                ["reset_raw"] = t.ResetRaw is { } rr ? rr : JValue.CreateNull(),
-                ["current_rises_to_trip"] = t.CurrentRisesToTrip,
-                ["on_delay_s"] = JsonOutput.Number(t.Alarm.OnDelaySeconds),
-                ["off_delay_s"] = JsonOutput.Number(t.Alarm.OffDelaySeconds),
-            })),
-        };
+            w.WriteStartObject();
+            w.NumberField("percent", s.Percent);
+            w.NumberField("ma", s.Ma);
+            w.NumberField("volts", s.Volts);
+            w.Field("raw", s.Raw);
+            w.NumberField("value", s.Value);
+            w.NumberField("tolerance", s.Tolerance);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
+        w.WritePropertyName("fault_tests");
+        w.WriteStartArray();
+        foreach (var f in sheet.FaultTests)
+        {
+            w.WriteStartObject();
+            w.Field("status", f.Status.ToString());
+            w.NumberField("ma", f.Ma);
+            w.NumberField("volts", f.Volts);
+            w.Field("raw", f.Raw);
+            w.NumberField("value", f.Value);
+            w.Field("holds_last_good", f.HoldsLastGood);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
+        w.WritePropertyName("untestable");
+        w.WriteStartArray();
+        foreach (var u in sheet.Untestable)
+        {
+            w.WriteStartObject();
+            w.Field("status", u.Status.ToString());
+            w.Field("reason", u.Reason);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
+        w.WritePropertyName("trips");
+        w.WriteStartArray();
+        foreach (var t in sheet.Trips)
+        {
+            w.WriteStartObject();
+            w.Field("alarm", t.Alarm.Kind.ToString());
+            w.NumberField("setpoint", t.Setpoint);
+            w.NumberField("trip_ma", t.TripMa);
+            w.NumberField("reset_ma", t.ResetMa);
+            w.NumberField("reset_value", t.ResetValue);
+            w.NumberField("trip_volts", t.TripVolts);
+            w.NumberField("reset_volts", t.ResetVolts);
+            w.Field("trip_raw", t.TripRaw);
+            w.Field("reset_raw", t.ResetRaw);
+            w.Field("current_rises_to_trip", t.CurrentRisesToTrip);
+            w.NumberField("on_delay_s", t.Alarm.OnDelaySeconds);
+            w.NumberField("off_delay_s", t.Alarm.OffDelaySeconds);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
+        w.WriteEndObject();
     }
 
     // ---- CSV ----------------------------------------------------------------------------
@@ -166,11 +197,14 @@ public static class SheetsReport
     /// point; as_found and as_left are left blank for the technician. The header lines come
     /// first as '#' comments.
     /// </summary>
-    public static string Csv(IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines)
+    public static string Csv(IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines) =>
+        TextChunks.Render(output => Csv(output, sheets, commentLines));
+
+    /// <summary>The same CSV, streamed.</summary>
+    public static void Csv(TextWriter output, IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines)
     {
-        var text = new StringWriter(CultureInfo.InvariantCulture) { NewLine = "\n" };
         var configuration = new CsvConfiguration(CultureInfo.InvariantCulture) { NewLine = "\n" };
-        using (var csv = new CsvWriter(text, configuration))
+        using (var csv = new CsvWriter(output, configuration, leaveOpen: true))
         {
             foreach (var line in commentLines)
             {
@@ -181,7 +215,6 @@ public static class SheetsReport
             csv.NextRecord();
             foreach (var sheet in sheets) WriteCsvPoint(csv, sheet);
         }
-        return text.ToString();
     }
 
     private static void WriteCsvPoint(CsvWriter csv, PointSheet sheet)

@@ -1,36 +1,30 @@
 using System.Diagnostics;
-using System.Text;
 using ScaleGen.Emit;
+using ScaleGen.Samples;
 using ScaleGen.Tests.Support;
 
 namespace ScaleGen.Tests.Cli;
 
 /// <summary>
 /// A real `scalegen build` process killed while it writes: the earlier outputs must
-/// survive whole (issue 8). The library tests stop the protocol at each step
-/// deterministically; this one proves it against a real kill.
+/// survive byte for byte, and the next build must clean up after the killed one (issue 8).
+/// The library tests stop the write protocol at each step deterministically; this one
+/// proves it against a real kill, on a plant large enough that the kill lands mid-write.
 /// </summary>
 public sealed class BuildKillTests : IDisposable
 {
-    private const int Points = 1000;
+    /// <summary>Large enough that writing its outputs (over 100 MB) takes seconds, not milliseconds.</summary>
+    private const int Points = 20_000;
 
     private readonly TempFolder _folder = new();
 
     public void Dispose() => _folder.Dispose();
 
-    /// <summary>An invented plant large enough that emitting it takes a visible moment.</summary>
-    private static string LargePlant()
-    {
-        var text = new StringBuilder(TestInputs.StandardCard).Append('\n');
-        for (var i = 1; i <= Points; i++)
-        {
-            text.Append($"point PT-{i} {{\n  desc \"Test pressure {i}\"\n  card AI16 at \"R{i / 16}.C{i % 16}\"\n");
-            text.Append($"  range 0 .. {100 + i} kPa\n  health ne43\n  alarm H {90 + i} deadband 2 %\n  alarm L 5 deadband 2 %\n}}\n");
-        }
-        return text.ToString();
-    }
+    private string[] WriteLargePlant() =>
+        PlantGenerator.Site(Points, seed: 11).Select(file => _folder.Write(Path.Combine("large", file.Name), file.Text)).ToArray();
 
-    private static Process StartBuild(string input, string output)
+    /// <summary>The built CLI in a process of its own, as CI runs it.</summary>
+    private static Process StartBuild(IEnumerable<string> inputs, string output)
     {
         var cli = typeof(ScaleGen.Cli.ScaleGenCli).Assembly.Location;
         var start = new ProcessStartInfo("dotnet")
@@ -39,48 +33,59 @@ public sealed class BuildKillTests : IDisposable
             RedirectStandardOutput = true,
             UseShellExecute = false,
         };
-        foreach (var argument in new[] { cli, "build", input, "-o", output }) start.ArgumentList.Add(argument);
+        foreach (var argument in new[] { "exec", cli, "build" }.Concat(inputs).Concat(["-o", output])) start.ArgumentList.Add(argument);
         return Process.Start(start) ?? throw new InvalidOperationException("could not start the CLI");
     }
 
+    /// <summary>Bytes written so far into the folder a build fills before the swap, the marker aside.</summary>
+    private static long BytesBeingWritten(string temporary)
+    {
+        try
+        {
+            return Directory.Exists(temporary)
+                ? Directory.GetFiles(temporary).Where(f => Path.GetFileName(f) != OutputWriter.MarkerFileName).Sum(f => new FileInfo(f).Length)
+                : 0;
+        }
+        catch (IOException)
+        {
+            return 0; // the folder is being created or removed; look again
+        }
+    }
+
     [Fact]
-    public void Killing_a_build_mid_write_leaves_the_earlier_outputs_intact()
+    public async Task Killing_a_build_mid_write_leaves_the_earlier_outputs_intact_and_the_next_build_recovers()
     {
         var target = _folder.Combine("out");
         Assert.Equal(0, TestInputs.RunCli(["build", .. TestInputs.ExampleFiles, "-o", target]).ExitCode);
         var earlier = TempFolder.Snapshot(target);
-
-        var large = _folder.Write("large.scale", LargePlant());
-        var complete = _folder.Combine("complete");
-        Assert.Equal(0, TestInputs.RunCli("build", large, "-o", complete).ExitCode);
-        var later = TempFolder.Snapshot(complete);
-
         var temporary = OutputWriter.TemporaryFolderFor(target);
-        var killedMidWrite = 0;
-        for (var attempt = 0; attempt < 2; attempt++)
-        {
-            using var process = StartBuild(large, target);
-            // Kill as soon as the new set is being written: the temporary folder exists.
-            var watch = Stopwatch.StartNew();
-            while (!process.HasExited && !Directory.Exists(temporary) && watch.Elapsed < TimeSpan.FromSeconds(60))
-                Thread.Sleep(1);
-            if (!process.HasExited)
-            {
-                process.Kill(entireProcessTree: true);
-                killedMidWrite++;
-            }
-            process.WaitForExit();
+        var large = WriteLargePlant();
 
-            // At every instant the folder is the earlier set, or missing with the earlier set
-            // set aside (restored by the next run), or the complete new set.
-            OutputWriter.Recover(target);
-            var now = TempFolder.Snapshot(target);
-            var isEarlier = now.Keys.SequenceEqual(earlier.Keys) && now.All(f => f.Value.AsSpan().SequenceEqual(earlier[f.Key]));
-            var isLater = now.Keys.SequenceEqual(later.Keys) && now.All(f => f.Value.AsSpan().SequenceEqual(later[f.Key]));
-            Assert.True(isEarlier || isLater, $"attempt {attempt}: the output folder holds a mix: {string.Join(", ", now.Keys)}");
-            if (isLater) TestInputs.RunCli(["build", .. TestInputs.ExampleFiles, "-o", target]); // start again from the earlier set
-            Assert.False(Directory.Exists(temporary));
+        using (var process = StartBuild(large, target))
+        {
+            // Kill once the new set is being written: a few MB of it are in the temporary folder.
+            var watch = Stopwatch.StartNew();
+            while (!process.HasExited && BytesBeingWritten(temporary) < 4_000_000 && watch.Elapsed < TimeSpan.FromMinutes(5))
+                Thread.Sleep(5);
+            Assert.False(process.HasExited, "the build ended before it could be killed mid-write");
+            process.Kill(entireProcessTree: true);
+            process.WaitForExit();
         }
-        Assert.True(killedMidWrite > 0, "no attempt was killed while writing");
+
+        // The killed build left its half-written set beside the folder, and the folder untouched.
+        Assert.True(BytesBeingWritten(temporary) >= 4_000_000, "the kill did not land while the new outputs were being written");
+        TempFolder.AssertSameFiles(earlier, TempFolder.Snapshot(target));
+
+        // The next build, a separate process as in CI, removes the leftovers and writes its set.
+        using (var next = StartBuild(TestInputs.ExampleFiles, target))
+        {
+            using var patience = new CancellationTokenSource(TimeSpan.FromMinutes(2));
+            var error = next.StandardError.ReadToEndAsync(patience.Token);
+            await next.WaitForExitAsync(patience.Token);
+            Assert.True(next.ExitCode == 0, $"the next build failed: {await error}");
+        }
+        Assert.False(Directory.Exists(temporary), "the next build left the killed build's folder behind");
+        Assert.False(Directory.Exists(OutputWriter.SetAsideFolderFor(target)));
+        TempFolder.AssertSameFiles(earlier, TempFolder.Snapshot(target));
     }
 }

@@ -74,6 +74,9 @@ public static class StLiterals
     {
         var rounded = Math.Round(value, decimals);
         if (rounded == 0) rounded = 0; // no "-0"
-        return rounded.ToString("0." + new string('#', decimals), CultureInfo.InvariantCulture);
+        return rounded.ToString(decimals < ReadableFormats.Length ? ReadableFormats[decimals] : "0." + new string('#', decimals), CultureInfo.InvariantCulture);
     }
+
+    /// <summary>"0.", "0.#", "0.##", ...: made once, as a plant of many points uses them over and over.</summary>
+    private static readonly string[] ReadableFormats = Enumerable.Range(0, 10).Select(d => "0." + new string('#', d)).ToArray();
 }

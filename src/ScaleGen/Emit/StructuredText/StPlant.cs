@@ -22,9 +22,15 @@ public static class StPlant
     public const int TagLength = 40;
     public const int DescriptionLength = 80;
 
-    public static string Text(EmitContext context) =>
-        StFile.HeaderComment(GeneratedHeader.Lines(context, "ScaleGen Structured Text plant program: one point block per analog input point."))
-        + "\n" + StWriter.Pou(Program(context.Plant), StLayout.Plant);
+    public static string Text(EmitContext context) => TextChunks.Render(output => Write(output, context));
+
+    /// <summary>The same program, streamed section by section (a 50,000-point plant.st is hundreds of MB).</summary>
+    public static void Write(TextWriter output, EmitContext context)
+    {
+        output.Write(StFile.HeaderComment(GeneratedHeader.Lines(context, "ScaleGen Structured Text plant program: one point block per analog input point.")));
+        output.Write('\n');
+        StWriter.WritePou(output, Program(context.Plant), StLayout.Plant);
+    }
 
     /// <summary>The program: per point a raw input, a parameter record constant and an instance, each in its own section; the calls as the body.</summary>
     public static StPou Program(Plant plant)

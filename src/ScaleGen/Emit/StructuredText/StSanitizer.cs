@@ -18,6 +18,7 @@ public static class StSanitizer
     /// </summary>
     public static string Comment(string? text)
     {
+        if (text is not null && IsPlain(text, forLiteral: false)) return text;
         var result = new StringBuilder();
         foreach (var c in Printable(text ?? ""))
         {
@@ -36,6 +37,7 @@ public static class StSanitizer
     /// </summary>
     public static string StringLiteral(string? text, int maxLength)
     {
+        if (text is not null && text.Length <= maxLength && IsPlain(text, forLiteral: true)) return "'" + text + "'";
         var result = new StringBuilder("'");
         var length = 0;
         foreach (var c in Printable(text ?? ""))
@@ -50,6 +52,22 @@ public static class StSanitizer
             else result.Append('?');
         }
         return result.Append('\'').ToString();
+    }
+
+    /// <summary>
+    /// True when the text comes out unchanged, which is nearly always: only printable ASCII
+    /// without '(*' and '*)' (in a comment), or without '$' and quotes (in a literal). A large
+    /// plant writes thousands of these; the common case then costs no copy.
+    /// </summary>
+    private static bool IsPlain(string text, bool forLiteral)
+    {
+        for (var i = 0; i < text.Length; i++)
+        {
+            var c = text[i];
+            if (c is < ' ' or > '~') return false;
+            if (forLiteral ? c is '$' or '\'' : (c == '*' && i > 0 && text[i - 1] == '(') || (c == ')' && i > 0 && text[i - 1] == '*')) return false;
+        }
+        return true;
     }
 
     /// <summary>The characters of a text with every line break, control or format character as a space and lone surrogates as '?'.</summary>

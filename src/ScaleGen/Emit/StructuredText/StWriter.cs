@@ -54,7 +54,10 @@ public static class StWriter
         return text.Append("END_TYPE\n").ToString();
     }
 
-    public static string Pou(StPou pou, StLayout layout)
+    public static string Pou(StPou pou, StLayout layout) => TextChunks.Render(output => WritePou(output, pou, layout));
+
+    /// <summary>The same text as <see cref="Pou"/>, spilled to <paramref name="output"/> section by section so a large program never sits whole in memory.</summary>
+    public static void WritePou(TextWriter output, StPou pou, StLayout layout)
     {
         var text = new StringBuilder(LeadingComment(pou.Comment, layout));
         text.Append(pou.Keyword).Append(' ').Append(pou.Name).Append('\n');
@@ -69,8 +72,10 @@ public static class StWriter
             text.Append(section.Keyword).Append('\n');
             foreach (var variable in section.Variables) AppendVariable(text, variable, layout);
             text.Append("END_VAR\n");
+            TextChunks.Spill(text, output);
         }
-        return text.Append('\n').Append(pou.Body).Append('\n').Append("END_").Append(pou.Keyword).Append('\n').ToString();
+        text.Append('\n').Append(pou.Body).Append('\n').Append("END_").Append(pou.Keyword).Append('\n');
+        TextChunks.Spill(text, output, all: true);
     }
 
     /// <summary>An initial value; a structure value with members opens at <paramref name="depth"/> and closes there.</summary>

@@ -11,6 +11,6 @@ public sealed class StructuredTextEmitter : IOutputEmitter
     public IEnumerable<GeneratedFile> Emit(EmitContext context) =>
     [
         new GeneratedFile(StNames.LibraryFile, StLibrary.Text(context)),
-        new GeneratedFile(StNames.PlantFile, StPlant.Text(context)),
+        new GeneratedFile(StNames.PlantFile, output => StPlant.Write(output, context)),
     ];
 }
