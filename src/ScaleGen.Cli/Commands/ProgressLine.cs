@@ -19,8 +19,13 @@ internal sealed class ProgressLine
 
     private ProgressLine(TextWriter? error) => _error = error;
 
-    public static ProgressLine For(ConsoleIo io, long inputChars) =>
-        new(io.ErrorIsTerminal && inputChars >= LargeInputChars ? io.Error : null);
+    /// <summary>verify sweeps every point for tens of milliseconds: a few hundred points take long enough to watch.</summary>
+    public const int LargeVerifyPoints = 200;
+
+    public static ProgressLine For(ConsoleIo io, long inputChars) => When(io, inputChars >= LargeInputChars);
+
+    /// <summary>A progress line shown when stderr is a terminal and the command judged the run long.</summary>
+    public static ProgressLine When(ConsoleIo io, bool longRun) => new(io.ErrorIsTerminal && longRun ? io.Error : null);
 
     /// <summary>Replaces the line with <paramref name="text"/> and the time since the start; safe from any thread.</summary>
     public void Show(string text)

@@ -50,7 +50,16 @@ internal static class VerifyCommand
             }
             if (texts.Count == 0) texts.AddRange(PlantVerifier.GenerateStructuredText(compilation));
 
-            var verification = PlantVerifier.Verify(compilation.Plant, texts);
+            var progress = ProgressLine.When(io, compilation.Plant.Points.Length >= ProgressLine.LargeVerifyPoints);
+            VerifyResult verification;
+            try
+            {
+                verification = PlantVerifier.Verify(compilation.Plant, texts, progress.Show);
+            }
+            finally
+            {
+                progress.Clear();
+            }
             if (result.GetValue(json))
             {
                 io.Out.Write(JsonOutput.Write(VerifyReport.Json(verification)));

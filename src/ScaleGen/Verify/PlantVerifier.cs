@@ -81,7 +81,12 @@ public static class PlantVerifier
     public static IReadOnlyList<SourceText> GenerateStructuredText(Compilation compilation) =>
         new StructuredTextEmitter().Emit(EmitContext.From(compilation)).Select(f => new SourceText(f.RelativePath, f.Content)).ToList();
 
-    public static VerifyResult Verify(Plant plant, IReadOnlyList<SourceText> structuredText)
+    /// <summary>
+    /// Runs the Structured Text against the reference. <paramref name="progress"/>, if given,
+    /// hears what is being done (a phase, or how many points have been swept) for a
+    /// progress line; it is called from this thread only.
+    /// </summary>
+    public static VerifyResult Verify(Plant plant, IReadOnlyList<SourceText> structuredText, Action<string>? progress = null)
     {
         var files = structuredText.Select(s => s.Path).ToImmutableArray();
         var watch = Stopwatch.StartNew();
@@ -101,6 +106,7 @@ public static class PlantVerifier
         string harness;
         try
         {
+            progress?.Invoke("reading and translating the Structured Text");
             translation = StTranslator.Translate(structuredText);
             harness = HarnessCode(translation, names);
         }
@@ -111,6 +117,7 @@ public static class PlantVerifier
         var translate = watch.Elapsed;
 
         watch.Restart();
+        progress?.Invoke("compiling the translation");
         using var assembly = StAssembly.Compile([translation.Code, harness], out var errors);
         var compile = watch.Elapsed;
         if (assembly is null)
@@ -126,7 +133,7 @@ public static class PlantVerifier
         var checkers = names.Select((n, i) => new PointChecker(i, n, plant.CycleSeconds, StatusMap(translation, n))).ToArray();
         try
         {
-            Run(driver, clock, (long)Math.Round(cycleMicroseconds), checkers);
+            Run(driver, clock, (long)Math.Round(cycleMicroseconds), checkers, progress);
         }
         catch (StRuntimeException e)
         {
@@ -145,13 +152,17 @@ public static class PlantVerifier
     /// others, one whole program scan per step. The clock advances one cycle per scan.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void Run(IStPlantHarness driver, StClock clock, long cycleMicroseconds, PointChecker[] checkers)
+    private static void Run(IStPlantHarness driver, StClock clock, long cycleMicroseconds, PointChecker[] checkers, Action<string>? progress)
     {
         var outputs = new StPointOutputs();
+        // About a hundred progress updates over the run, whatever the plant's size.
+        var every = Math.Max(1, checkers.Length / 100);
         if (driver.PerPoint)
         {
             foreach (var checker in checkers)
             {
+                if (progress is not null && checker.Index % every == 0)
+                    progress($"sweeping point {checker.Index + 1} of {checkers.Length}");
                 while (!checker.Done)
                 {
                     if (checker.AtCaseStart) driver.ResetPoint(checker.Index);
@@ -174,6 +185,7 @@ public static class PlantVerifier
             return;
         }
 
+        progress?.Invoke($"sweeping {checkers.Length} points in step");
         var active = checkers.Where(c => !c.Done).ToList();
         while (active.Count > 0)
         {

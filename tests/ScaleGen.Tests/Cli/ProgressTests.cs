@@ -1,5 +1,6 @@
 using System.Globalization;
 using ScaleGen.Cli;
+using ScaleGen.Cli.Commands;
 using ScaleGen.Samples;
 using ScaleGen.Tests.Support;
 
@@ -67,5 +68,22 @@ public sealed class ProgressTests : IDisposable
         var afterProgress = result.Error[(result.Error.LastIndexOf('\r') + 1)..];
         Assert.Contains("error SG1006", afterProgress, StringComparison.Ordinal);
         Assert.EndsWith("nothing was written\n", afterProgress, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Verify_of_a_large_plant_on_a_terminal_shows_its_phases_and_sweep_and_clears_the_line()
+    {
+        var files = PlantGenerator.Site(ProgressLine.LargeVerifyPoints, seed: 7)
+            .Select(file => _folder.Write(Path.Combine("verify", file.Name), file.Text)).ToArray();
+
+        var result = Run(true, ["verify", .. files]);
+
+        Assert.Equal(0, result.ExitCode);
+        Assert.Contains("\rscalegen: reading and translating the Structured Text", result.Error, StringComparison.Ordinal);
+        Assert.Contains("\rscalegen: compiling the translation", result.Error, StringComparison.Ordinal);
+        Assert.Contains($"\rscalegen: sweeping point 1 of {ProgressLine.LargeVerifyPoints} (", result.Error, StringComparison.Ordinal);
+        // Blanked at the end; the verdict table on stdout is untouched by it.
+        Assert.Equal("", result.Error[(result.Error.LastIndexOf('\r') + 1)..]);
+        Assert.DoesNotContain('\r', result.Out);
     }
 }
