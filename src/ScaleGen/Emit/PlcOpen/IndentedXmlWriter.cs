@@ -1,0 +1,200 @@
+using System.Text;
+
+namespace ScaleGen.Emit.PlcOpen;
+
+/// <summary>
+/// Writes XML text exactly as <see cref="System.Xml.XmlWriter"/> does with
+/// <c>Indent = true</c>, two spaces, <c>NewLineChars = "\n"</c> and
+/// <c>NewLineHandling.Replace</c>, for the documents the PLCopen export writes: elements that
+/// hold either child elements or one run of text (never both), attributes, CDATA and comments.
+/// </summary>
+/// <remarks>
+/// <para>Why not XmlWriter itself: at 50,000 points plant.xml is about 400 MB, and the checks
+/// XmlWriter makes on every call (names, namespace scopes, state) cost more than building the
+/// rest of the file; here the fixed markup is appended as it is and only the values are
+/// escaped. The tests hold its output to XmlWriter's, escaping included.</para>
+/// <para>Names are written as given (<c>xhtml:p</c> with its prefix); the caller declares the
+/// namespaces on the root element. Text is escaped as XmlWriter escapes it; a character XML
+/// cannot hold (most control characters, a lone surrogate, U+FFFE, U+FFFF) throws, as it
+/// does with XmlWriter: free text goes through <see cref="XmlSafeText"/> before it comes
+/// here. The text is spilled to the output every few ten thousand characters
+/// (<see cref="TextChunks.Spill"/>); <see cref="Flush"/> writes the rest.</para>
+/// </remarks>
+internal sealed class IndentedXmlWriter(TextWriter output)
+{
+    private readonly StringBuilder _text = new();
+
+    /// <summary>The open elements, innermost last, and whether each holds child elements yet.</summary>
+    private readonly List<(string Name, bool HasChildren)> _open = [];
+
+    /// <summary>The innermost start tag still lacks its '&gt;' (attributes may follow).</summary>
+    private bool _startTagOpen;
+
+    /// <summary>Nothing written yet: the first node does not start on a new line.</summary>
+    private bool _atStart = true;
+
+    private static readonly string[] Indents = Enumerable.Range(0, 32).Select(depth => "\n" + new string(' ', 2 * depth)).ToArray();
+
+    public void WriteComment(string text)
+    {
+        if (_open.Count > 0) throw new InvalidOperationException("Comments are written outside the root element only.");
+        if (text.Contains("--", StringComparison.Ordinal) || text.EndsWith('-'))
+            throw new ArgumentException("A comment cannot hold \"--\" or end in '-'.", nameof(text));
+        NewLine();
+        _text.Append("<!--");
+        AppendText(text, attribute: false);
+        _text.Append("-->");
+    }
+
+    public void WriteStartElement(string name)
+    {
+        if (_open.Count > 0)
+        {
+            var (parent, hasChildren) = _open[^1];
+            if (!hasChildren && !_startTagOpen) throw new InvalidOperationException($"<{parent}> holds text: no child elements after it.");
+            CloseStartTag();
+            _open[^1] = (parent, true);
+        }
+        NewLine();
+        _text.Append('<').Append(name);
+        _open.Add((name, false));
+        _startTagOpen = true;
+    }
+
+    public void WriteAttributeString(string name, string value)
+    {
+        if (!_startTagOpen) throw new InvalidOperationException($"Attribute {name} outside a start tag.");
+        _text.Append(' ').Append(name).Append("=\"");
+        AppendText(value, attribute: true);
+        _text.Append('"');
+    }
+
+    /// <summary>Text content; the element then holds no child elements.</summary>
+    public void WriteString(string text)
+    {
+        BeginText();
+        AppendText(text, attribute: false);
+    }
+
+    /// <summary>A CDATA section; a "]]&gt;" inside is split across two sections, as XmlWriter does.</summary>
+    public void WriteCData(string text)
+    {
+        BeginText();
+        _text.Append("<![CDATA[");
+        var rest = text.AsSpan();
+        for (var end = rest.IndexOf("]]>"); end >= 0; end = rest.IndexOf("]]>"))
+        {
+            AppendText(rest[..(end + 2)], attribute: false, cdata: true);
+            _text.Append("]]><![CDATA[");
+            rest = rest[(end + 2)..];
+        }
+        AppendText(rest, attribute: false, cdata: true);
+        _text.Append("]]>");
+    }
+
+    /// <summary>Ends the innermost element: <c>&lt;name /&gt;</c> when it is empty.</summary>
+    public void WriteEndElement() => End(full: false);
+
+    /// <summary>Ends the innermost element: <c>&lt;name&gt;&lt;/name&gt;</c> when it is empty.</summary>
+    public void WriteFullEndElement() => End(full: true);
+
+    /// <summary>Writes out what is not yet written; every element must be closed.</summary>
+    public void Flush()
+    {
+        if (_open.Count > 0) throw new InvalidOperationException($"<{_open[^1].Name}> is still open.");
+        TextChunks.Spill(_text, output, all: true);
+    }
+
+    private void End(bool full)
+    {
+        if (_open.Count == 0) throw new InvalidOperationException("No element to end.");
+        var (name, hasChildren) = _open[^1];
+        _open.RemoveAt(_open.Count - 1);
+        if (_startTagOpen)
+        {
+            _startTagOpen = false;
+            if (!full)
+            {
+                _text.Append(" />");
+                TextChunks.Spill(_text, output);
+                return;
+            }
+            _text.Append('>');
+        }
+        else if (hasChildren)
+        {
+            _text.Append(Indent(_open.Count));
+        }
+        _text.Append("</").Append(name).Append('>');
+        TextChunks.Spill(_text, output);
+    }
+
+    private void BeginText()
+    {
+        if (_open.Count == 0) throw new InvalidOperationException("Text outside the root element.");
+        if (_open[^1].HasChildren) throw new InvalidOperationException($"<{_open[^1].Name}> holds elements: no text after them.");
+        CloseStartTag();
+    }
+
+    private void CloseStartTag()
+    {
+        if (!_startTagOpen) return;
+        _text.Append('>');
+        _startTagOpen = false;
+    }
+
+    /// <summary>Every node but the first starts on a new line, indented two spaces a level.</summary>
+    private void NewLine()
+    {
+        if (_atStart) _atStart = false;
+        else _text.Append(Indent(_open.Count));
+    }
+
+    private static string Indent(int depth) => depth < Indents.Length ? Indents[depth] : "\n" + new string(' ', 2 * depth);
+
+    /// <summary>
+    /// Text with XmlWriter's escapes: &amp; &lt; &gt; always; in an attribute also the quote
+    /// and tab and line breaks as character references; elsewhere a "\r\n" or lone '\r' as '\n'.
+    /// In CDATA nothing is escaped but the line breaks.
+    /// </summary>
+    private void AppendText(ReadOnlySpan<char> text, bool attribute, bool cdata = false)
+    {
+        var start = 0;
+        for (var i = 0; i < text.Length; i++)
+        {
+            var c = text[i];
+            if (c is >= ' ' and <= '~' && c is not ('<' or '>' or '&' or '"')) continue;
+            string? replacement;
+            switch (c)
+            {
+                case '<': replacement = cdata ? null : "&lt;"; break;
+                case '>': replacement = cdata ? null : "&gt;"; break;
+                case '&': replacement = cdata ? null : "&amp;"; break;
+                case '"': replacement = attribute ? "&quot;" : null; break;
+                case '\t': replacement = attribute ? "&#x9;" : null; break;
+                case '\n': replacement = attribute ? "&#xA;" : null; break;
+                case '\r':
+                    if (attribute) { replacement = "&#xD;"; break; }
+                    // "\r\n" and a lone '\r' are both one '\n'.
+                    _text.Append(text[start..i]).Append('\n');
+                    if (i + 1 < text.Length && text[i + 1] == '\n') i++;
+                    start = i + 1;
+                    continue;
+                default:
+                    if (char.IsHighSurrogate(c) && i + 1 < text.Length && char.IsLowSurrogate(text[i + 1]))
+                    {
+                        i++;
+                        continue;
+                    }
+                    if (c < ' ' || char.IsSurrogate(c) || c is '\uFFFE' or '\uFFFF')
+                        throw new ArgumentException($"XML cannot hold the character U+{(int)c:X4}.", nameof(text));
+                    replacement = null;
+                    break;
+            }
+            if (replacement is null) continue;
+            _text.Append(text[start..i]).Append(replacement);
+            start = i + 1;
+        }
+        _text.Append(text[start..]);
+    }
+}
