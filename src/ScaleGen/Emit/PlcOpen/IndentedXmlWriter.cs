@@ -25,7 +25,9 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     private readonly StringBuilder _text = new();
 
     /// <summary>The open elements, innermost last, and whether each holds child elements yet.</summary>
-    private readonly List<(string Name, bool HasChildren)> _open = [];
+    private string[] _names = new string[16];
+    private bool[] _hasChildren = new bool[16];
+    private int _depth;
 
     /// <summary>The innermost start tag still lacks its '&gt;' (attributes may follow).</summary>
     private bool _startTagOpen;
@@ -37,7 +39,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
 
     public void WriteComment(string text)
     {
-        if (_open.Count > 0) throw new InvalidOperationException("Comments are written outside the root element only.");
+        if (_depth > 0) throw new InvalidOperationException("Comments are written outside the root element only.");
         if (text.Contains("--", StringComparison.Ordinal) || text.EndsWith('-'))
             throw new ArgumentException("A comment cannot hold \"--\" or end in '-'.", nameof(text));
         NewLine();
@@ -48,17 +50,26 @@ internal sealed class IndentedXmlWriter(TextWriter output)
 
     public void WriteStartElement(string name)
     {
-        if (_open.Count > 0)
-        {
-            var (parent, hasChildren) = _open[^1];
-            if (!hasChildren && !_startTagOpen) throw new InvalidOperationException($"<{parent}> holds text: no child elements after it.");
-            CloseStartTag();
-            _open[^1] = (parent, true);
-        }
-        NewLine();
+        BeginChild();
         _text.Append('<').Append(name);
-        _open.Add((name, false));
+        if (_depth == _names.Length)
+        {
+            Array.Resize(ref _names, _depth * 2);
+            Array.Resize(ref _hasChildren, _depth * 2);
+        }
+        _names[_depth] = name;
+        _hasChildren[_depth] = false;
+        _depth++;
         _startTagOpen = true;
+    }
+
+    /// <summary>An element with one attribute and no content, <c>&lt;name attribute="value" /&gt;</c>: the most common element here, in one call.</summary>
+    public void WriteEmptyElement(string name, string attribute, string value)
+    {
+        BeginChild();
+        _text.Append('<').Append(name).Append(' ').Append(attribute).Append("=\"");
+        AppendText(value, attribute: true);
+        _text.Append("\" />");
     }
 
     public void WriteAttributeString(string name, string value)
@@ -101,15 +112,15 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     /// <summary>Writes out what is not yet written; every element must be closed.</summary>
     public void Flush()
     {
-        if (_open.Count > 0) throw new InvalidOperationException($"<{_open[^1].Name}> is still open.");
+        if (_depth > 0) throw new InvalidOperationException($"<{_names[_depth - 1]}> is still open.");
         TextChunks.Spill(_text, output, all: true);
     }
 
     private void End(bool full)
     {
-        if (_open.Count == 0) throw new InvalidOperationException("No element to end.");
-        var (name, hasChildren) = _open[^1];
-        _open.RemoveAt(_open.Count - 1);
+        if (_depth == 0) throw new InvalidOperationException("No element to end.");
+        _depth--;
+        var name = _names[_depth];
         if (_startTagOpen)
         {
             _startTagOpen = false;
@@ -121,18 +132,34 @@ internal sealed class IndentedXmlWriter(TextWriter output)
             }
             _text.Append('>');
         }
-        else if (hasChildren)
+        else if (_hasChildren[_depth])
         {
-            _text.Append(Indent(_open.Count));
+            _text.Append(Indent(_depth));
         }
         _text.Append("</").Append(name).Append('>');
         TextChunks.Spill(_text, output);
     }
 
+    /// <summary>A child element starts: the parent's start tag closes, and the child goes on a new line.</summary>
+    private void BeginChild()
+    {
+        if (_depth > 0)
+        {
+            if (_startTagOpen)
+            {
+                _text.Append('>');
+                _startTagOpen = false;
+            }
+            else if (!_hasChildren[_depth - 1]) throw new InvalidOperationException($"<{_names[_depth - 1]}> holds text: no child elements after it.");
+            _hasChildren[_depth - 1] = true;
+        }
+        NewLine();
+    }
+
     private void BeginText()
     {
-        if (_open.Count == 0) throw new InvalidOperationException("Text outside the root element.");
-        if (_open[^1].HasChildren) throw new InvalidOperationException($"<{_open[^1].Name}> holds elements: no text after them.");
+        if (_depth == 0) throw new InvalidOperationException("Text outside the root element.");
+        if (_hasChildren[_depth - 1]) throw new InvalidOperationException($"<{_names[_depth - 1]}> holds elements: no text after them.");
         CloseStartTag();
     }
 
@@ -147,7 +174,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     private void NewLine()
     {
         if (_atStart) _atStart = false;
-        else _text.Append(Indent(_open.Count));
+        else _text.Append(Indent(_depth));
     }
 
     private static string Indent(int depth) => depth < Indents.Length ? Indents[depth] : "\n" + new string(' ', 2 * depth);
@@ -160,6 +187,13 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     private void AppendText(ReadOnlySpan<char> text, bool attribute, bool cdata = false)
     {
         var start = 0;
+        var plain = 0;
+        while (plain < text.Length && text[plain] is >= ' ' and <= '~' and not ('<' or '>' or '&' or '"')) plain++;
+        if (plain == text.Length)
+        {
+            _text.Append(text);
+            return;
+        }
         for (var i = 0; i < text.Length; i++)
         {
             var c = text[i];

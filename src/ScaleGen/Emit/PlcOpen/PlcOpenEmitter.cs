@@ -106,14 +106,6 @@ public sealed class PlcOpenEmitter : IOutputEmitter
         xml.WriteFullEndElement();
     }
 
-    /// <summary>An element in the TC6 namespace with one attribute and no content.</summary>
-    private static void EmptyElement(IndentedXmlWriter xml, string name, string attribute, string value)
-    {
-        xml.WriteStartElement(name);
-        xml.WriteAttributeString(attribute, value);
-        xml.WriteEndElement();
-    }
-
     /// <summary>The schema requires scaling for the graphical languages; 1:1, as no graphics are written.</summary>
     private static void Scaling(IndentedXmlWriter xml, string language)
     {
@@ -135,7 +127,7 @@ public sealed class PlcOpenEmitter : IOutputEmitter
             case StEnumType enumeration:
                 xml.WriteStartElement("enum");
                 xml.WriteStartElement("values");
-                foreach (var value in enumeration.Values) EmptyElement(xml, "value", "name", value);
+                foreach (var value in enumeration.Values) xml.WriteEmptyElement("value", "name", value);
                 xml.WriteEndElement();
                 xml.WriteEndElement();
                 break;
@@ -227,10 +219,10 @@ public sealed class PlcOpenEmitter : IOutputEmitter
                 xml.WriteEndElement();
                 break;
             case StStringType text:
-                EmptyElement(xml, "string", "length", text.Length.ToString(CultureInfo.InvariantCulture));
+                xml.WriteEmptyElement("string", "length", text.Length.ToString(CultureInfo.InvariantCulture));
                 break;
             case StDerivedType derived:
-                EmptyElement(xml, "derived", "name", derived.Name);
+                xml.WriteEmptyElement("derived", "name", derived.Name);
                 break;
             default:
                 throw new ArgumentException($"No TC6 form for {type.GetType().Name}.", nameof(type));
@@ -243,12 +235,13 @@ public sealed class PlcOpenEmitter : IOutputEmitter
         switch (value)
         {
             case StSimpleValue simple:
-                EmptyElement(xml, "simpleValue", "value", simple.Literal);
+                xml.WriteEmptyElement("simpleValue", "value", simple.Literal);
                 break;
             case StStructValue structure:
                 xml.WriteStartElement("structValue");
-                foreach (var member in structure.Members)
+                for (var i = 0; i < structure.Members.Count; i++)
                 {
+                    var member = structure.Members[i];
                     xml.WriteStartElement("value");
                     xml.WriteAttributeString("member", member.Member);
                     Value(xml, member.Value);
