@@ -14,11 +14,12 @@ namespace ScaleGen.Emit.PlcOpen;
 /// rest of the file; here the fixed markup is appended as it is and only the values are
 /// escaped. The tests hold its output to XmlWriter's, escaping included.</para>
 /// <para>Names are written as given (<c>xhtml:p</c> with its prefix); the caller declares the
-/// namespaces on the root element. Text is escaped as XmlWriter escapes it; a character XML
-/// cannot hold (most control characters, a lone surrogate, U+FFFE, U+FFFF) throws, as it
-/// does with XmlWriter: free text goes through <see cref="XmlSafeText"/> before it comes
-/// here. The text is spilled to the output every few ten thousand characters
-/// (<see cref="TextChunks.Spill"/>); <see cref="Flush"/> writes the rest.</para>
+/// namespaces on the root element. Values and text are escaped as XmlWriter escapes them;
+/// comments and CDATA are written as they are but for line breaks. A character XML cannot
+/// hold (most control characters, a lone surrogate, U+FFFE, U+FFFF) throws, as it does with
+/// XmlWriter: free text goes through <see cref="XmlSafeText"/> before it comes here. The text
+/// is spilled to the output every few ten thousand characters (<see cref="TextChunks.Spill"/>);
+/// <see cref="Flush"/> writes the rest.</para>
 /// </remarks>
 internal sealed class IndentedXmlWriter(TextWriter output)
 {
@@ -44,7 +45,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
             throw new ArgumentException("A comment cannot hold \"--\" or end in '-'.", nameof(text));
         NewLine();
         _text.Append("<!--");
-        AppendText(text, attribute: false);
+        AppendText(text, TextKind.Raw);
         _text.Append("-->");
     }
 
@@ -68,7 +69,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     {
         BeginChild();
         _text.Append('<').Append(name).Append(' ').Append(attribute).Append("=\"");
-        AppendText(value, attribute: true);
+        AppendText(value, TextKind.Attribute);
         _text.Append("\" />");
     }
 
@@ -76,7 +77,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     {
         if (!_startTagOpen) throw new InvalidOperationException($"Attribute {name} outside a start tag.");
         _text.Append(' ').Append(name).Append("=\"");
-        AppendText(value, attribute: true);
+        AppendText(value, TextKind.Attribute);
         _text.Append('"');
     }
 
@@ -84,7 +85,7 @@ internal sealed class IndentedXmlWriter(TextWriter output)
     public void WriteString(string text)
     {
         BeginText();
-        AppendText(text, attribute: false);
+        AppendText(text, TextKind.Content);
     }
 
     /// <summary>A CDATA section; a "]]&gt;" inside is split across two sections, as XmlWriter does.</summary>
@@ -95,11 +96,11 @@ internal sealed class IndentedXmlWriter(TextWriter output)
         var rest = text.AsSpan();
         for (var end = rest.IndexOf("]]>"); end >= 0; end = rest.IndexOf("]]>"))
         {
-            AppendText(rest[..(end + 2)], attribute: false, cdata: true);
+            AppendText(rest[..(end + 2)], TextKind.Raw);
             _text.Append("]]><![CDATA[");
             rest = rest[(end + 2)..];
         }
-        AppendText(rest, attribute: false, cdata: true);
+        AppendText(rest, TextKind.Raw);
         _text.Append("]]>");
     }
 
@@ -179,14 +180,24 @@ internal sealed class IndentedXmlWriter(TextWriter output)
 
     private static string Indent(int depth) => depth < Indents.Length ? Indents[depth] : "\n" + new string(' ', 2 * depth);
 
-    /// <summary>
-    /// Text with XmlWriter's escapes: &amp; &lt; &gt; always; in an attribute also the quote
-    /// and tab and line breaks as character references; elsewhere a "\r\n" or lone '\r' as '\n'.
-    /// In CDATA nothing is escaped but the line breaks.
-    /// </summary>
-    private void AppendText(ReadOnlySpan<char> text, bool attribute, bool cdata = false)
+    /// <summary>Where text goes, which decides its escapes.</summary>
+    private enum TextKind
     {
-        var start = 0;
+        /// <summary>Element content: &amp; &lt; &gt; escaped.</summary>
+        Content,
+        /// <summary>An attribute value in double quotes: also the quote, and tab and line breaks as character references.</summary>
+        Attribute,
+        /// <summary>CDATA or a comment: nothing escaped.</summary>
+        Raw,
+    }
+
+    /// <summary>
+    /// Text with XmlWriter's escapes for <paramref name="kind"/>. Outside attributes a "\r\n"
+    /// or a lone '\r' becomes '\n', as with NewLineHandling.Replace.
+    /// </summary>
+    private void AppendText(ReadOnlySpan<char> text, TextKind kind)
+    {
+        // Nearly every value is printable ASCII without markup characters: appended whole.
         var plain = 0;
         while (plain < text.Length && text[plain] is >= ' ' and <= '~' and not ('<' or '>' or '&' or '"')) plain++;
         if (plain == text.Length)
@@ -194,35 +205,31 @@ internal sealed class IndentedXmlWriter(TextWriter output)
             _text.Append(text);
             return;
         }
-        for (var i = 0; i < text.Length; i++)
+        var start = 0;
+        for (var i = plain; i < text.Length; i++)
         {
             var c = text[i];
-            if (c is >= ' ' and <= '~' && c is not ('<' or '>' or '&' or '"')) continue;
-            string? replacement;
+            string? replacement = null;
             switch (c)
             {
-                case '<': replacement = cdata ? null : "&lt;"; break;
-                case '>': replacement = cdata ? null : "&gt;"; break;
-                case '&': replacement = cdata ? null : "&amp;"; break;
-                case '"': replacement = attribute ? "&quot;" : null; break;
-                case '\t': replacement = attribute ? "&#x9;" : null; break;
-                case '\n': replacement = attribute ? "&#xA;" : null; break;
+                case '<' when kind != TextKind.Raw: replacement = "&lt;"; break;
+                case '>' when kind != TextKind.Raw: replacement = "&gt;"; break;
+                case '&' when kind != TextKind.Raw: replacement = "&amp;"; break;
+                case '"' when kind == TextKind.Attribute: replacement = "&quot;"; break;
+                case '\t' when kind == TextKind.Attribute: replacement = "&#x9;"; break;
+                case '\n' when kind == TextKind.Attribute: replacement = "&#xA;"; break;
+                case '\r' when kind == TextKind.Attribute: replacement = "&#xD;"; break;
                 case '\r':
-                    if (attribute) { replacement = "&#xD;"; break; }
-                    // "\r\n" and a lone '\r' are both one '\n'.
                     _text.Append(text[start..i]).Append('\n');
                     if (i + 1 < text.Length && text[i + 1] == '\n') i++;
                     start = i + 1;
                     continue;
+                case '\t' or '\n':
+                    break;
                 default:
-                    if (char.IsHighSurrogate(c) && i + 1 < text.Length && char.IsLowSurrogate(text[i + 1]))
-                    {
-                        i++;
-                        continue;
-                    }
-                    if (c < ' ' || char.IsSurrogate(c) || c is '\uFFFE' or '\uFFFF')
+                    if (char.IsHighSurrogate(c) && i + 1 < text.Length && char.IsLowSurrogate(text[i + 1])) i++;
+                    else if (c < ' ' || char.IsSurrogate(c) || c is '\uFFFE' or '\uFFFF')
                         throw new ArgumentException($"XML cannot hold the character U+{(int)c:X4}.", nameof(text));
-                    replacement = null;
                     break;
             }
             if (replacement is null) continue;
