@@ -55,6 +55,7 @@ public sealed class PlcOpenEmitter : IOutputEmitter
         output.Write(Declaration);
         var xml = new IndentedXmlWriter(output);
         xml.WriteComment("\n" + string.Concat(comment.Select(line => "  " + XmlSafeText.CommentLine(line) + "\n")));
+        // Every element below without a prefix is in the TC6 namespace, the default one here.
         xml.WriteStartElement("project");
         xml.WriteAttributeString("xmlns:xhtml", Xhtml.NamespaceName);
         xml.WriteAttributeString("xmlns", Tc6.NamespaceName);
