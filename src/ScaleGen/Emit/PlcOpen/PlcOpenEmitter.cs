@@ -1,6 +1,5 @@
-using System.Text;
+using System.Globalization;
 using System.Xml;
-using System.Xml.Linq;
 using ScaleGen.Emit.StructuredText;
 using ScaleGen.Model;
 using static ScaleGen.Emit.PlcOpen.PlcOpenNames;
@@ -25,29 +24,26 @@ public sealed class PlcOpenEmitter : IOutputEmitter
 {
     public string Kind => "plcopen";
 
-    public IEnumerable<GeneratedFile> Emit(EmitContext context) => [new GeneratedFile(FileName, Project(context))];
+    public IEnumerable<GeneratedFile> Emit(EmitContext context) => [new GeneratedFile(FileName, output => Write(output, context))];
 
-    private static readonly UTF8Encoding Utf8NoBom = new(encoderShouldEmitUTF8Identifier: false);
+    /// <summary>The whole project as one string (for tests and small plants): UTF-8 declaration, two-space indent, '\n' line ends.</summary>
+    public static string Project(EmitContext context) => TextChunks.Render(output => Write(output, context));
 
-    /// <summary>The whole project as text: UTF-8 declaration, two-space indent, '\n' line ends.</summary>
-    public static string Project(EmitContext context)
-    {
-        var document = Document(context);
-        var settings = new XmlWriterSettings
-        {
-            Encoding = Utf8NoBom,
-            Indent = true,
-            IndentChars = "  ",
-            NewLineChars = "\n",
-            NewLineHandling = NewLineHandling.Replace,
-        };
-        using var stream = new MemoryStream();
-        using (var writer = XmlWriter.Create(stream, settings))
-            document.Save(writer);
-        return Utf8NoBom.GetString(stream.ToArray()) + "\n";
-    }
+    /// <summary>
+    /// The XML declaration, fixed: plant.xml is always written as UTF-8, also when the text
+    /// goes to a writer of another encoding (<see cref="Project"/> renders into a UTF-16 string).
+    /// </summary>
+    private const string Declaration = "<?xml version=\"1.0\" encoding=\"utf-8\"?>\n";
 
-    public static XDocument Document(EmitContext context)
+    /// <summary>Documentation and ST bodies: a paragraph in the XHTML namespace, which the root element binds to this prefix.</summary>
+    private const string XhtmlParagraph = "xhtml:p";
+
+    /// <summary>
+    /// The project, streamed: the plant program's declarations are written section by section
+    /// as <see cref="StPlant.Program"/> makes them, so a 50,000-point file (hundreds of MB)
+    /// never sits whole in memory.
+    /// </summary>
+    public static void Write(TextWriter output, EmitContext context)
     {
         var plant = context.Plant;
         var header = GeneratedHeader.Lines(context,
@@ -56,130 +52,248 @@ public sealed class PlcOpenEmitter : IOutputEmitter
             $"fileHeader creationDateTime is fixed at {CreationDateTime}: the schema requires one, and ScaleGen writes no timestamps, so the same input gives the same bytes.");
         var program = StPlant.Program(plant);
 
-        return new XDocument(
-            new XComment("\n" + string.Concat(comment.Select(line => "  " + XmlSafeText.CommentLine(line) + "\n"))),
-            new XElement(Tc6 + "project",
-                new XAttribute(XNamespace.Xmlns + "xhtml", Xhtml.NamespaceName),
-                new XElement(Tc6 + "fileHeader",
-                    new XAttribute("companyName", "ScaleGen"),
-                    new XAttribute("productName", "scalegen"),
-                    new XAttribute("productVersion", XmlSafeText.Line(context.ToolVersion)),
-                    new XAttribute("creationDateTime", CreationDateTime),
-                    new XAttribute("contentDescription", XmlSafeText.Line(header[0]))),
-                new XElement(Tc6 + "contentHeader",
-                    new XAttribute("name", XmlSafeText.Line(plant.Title ?? "ScaleGen plant")),
-                    new XAttribute("language", "en"),
-                    new XElement(Tc6 + "Comment", string.Join("\n", GeneratedHeader.Caution)),
-                    new XElement(Tc6 + "coordinateInfo", Scaling("fbd"), Scaling("ld"), Scaling("sfc"))),
-                new XElement(Tc6 + "types",
-                    new XElement(Tc6 + "dataTypes", StLibrary.DataTypes.Select(DataType)),
-                    new XElement(Tc6 + "pous", StLibrary.Blocks.Append(program).Select(Pou))),
-                new XElement(Tc6 + "instances",
-                    new XElement(Tc6 + "configurations", Configuration(plant, program))),
-                Documentation(header)));
+        output.Write(Declaration);
+        var xml = new IndentedXmlWriter(output);
+        xml.WriteComment("\n" + string.Concat(comment.Select(line => "  " + XmlSafeText.CommentLine(line) + "\n")));
+        // Every element below without a prefix is in the TC6 namespace, the default one here.
+        xml.WriteStartElement("project");
+        xml.WriteAttributeString("xmlns:xhtml", Xhtml.NamespaceName);
+        xml.WriteAttributeString("xmlns", Tc6.NamespaceName);
+
+        xml.WriteStartElement("fileHeader");
+        xml.WriteAttributeString("companyName", "ScaleGen");
+        xml.WriteAttributeString("productName", "scalegen");
+        xml.WriteAttributeString("productVersion", XmlSafeText.Line(context.ToolVersion));
+        xml.WriteAttributeString("creationDateTime", CreationDateTime);
+        xml.WriteAttributeString("contentDescription", XmlSafeText.Line(header[0]));
+        xml.WriteEndElement();
+
+        xml.WriteStartElement("contentHeader");
+        xml.WriteAttributeString("name", XmlSafeText.Line(plant.Title ?? "ScaleGen plant"));
+        xml.WriteAttributeString("language", "en");
+        TextElement(xml, "Comment", string.Join("\n", GeneratedHeader.Caution));
+        xml.WriteStartElement("coordinateInfo");
+        foreach (var language in (ReadOnlySpan<string>)["fbd", "ld", "sfc"]) Scaling(xml, language);
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+
+        xml.WriteStartElement("types");
+        xml.WriteStartElement("dataTypes");
+        foreach (var type in StLibrary.DataTypes) DataType(xml, type);
+        xml.WriteEndElement();
+        xml.WriteStartElement("pous");
+        foreach (var block in StLibrary.Blocks) Pou(xml, block);
+        Pou(xml, program);
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+
+        xml.WriteStartElement("instances");
+        xml.WriteStartElement("configurations");
+        Configuration(xml, plant, program);
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+
+        Documentation(xml, header);
+        xml.WriteEndElement();
+        xml.Flush();
+        output.Write('\n');
+    }
+
+    /// <summary>An element in the TC6 namespace holding one text (written as &lt;name&gt;&lt;/name&gt; when empty).</summary>
+    private static void TextElement(IndentedXmlWriter xml, string name, string text)
+    {
+        xml.WriteStartElement(name);
+        xml.WriteString(text);
+        xml.WriteFullEndElement();
     }
 
     /// <summary>The schema requires scaling for the graphical languages; 1:1, as no graphics are written.</summary>
-    private static XElement Scaling(string language) =>
-        new(Tc6 + language, new XElement(Tc6 + "scaling", new XAttribute("x", "1"), new XAttribute("y", "1")));
-
-    private static XElement DataType(StDataType type) =>
-        new(Tc6 + "dataType",
-            new XAttribute("name", type.Name),
-            new XElement(Tc6 + "baseType", type switch
-            {
-                StEnumType enumeration => new XElement(Tc6 + "enum",
-                    new XElement(Tc6 + "values", enumeration.Values.Select(v => new XElement(Tc6 + "value", new XAttribute("name", v))))),
-                StStructType structure => new XElement(Tc6 + "struct", structure.Members.Select(Variable)),
-                _ => throw new ArgumentException($"No TC6 form for {type.GetType().Name}.", nameof(type)),
-            }),
-            Documentation(type.Comment));
-
-    private static XElement Pou(StPou pou) =>
-        new(Tc6 + "pou",
-            new XAttribute("name", pou.Name),
-            new XAttribute("pouType", pou.Kind == StPouKind.Program ? "program" : "functionBlock"),
-            new XElement(Tc6 + "interface", pou.Sections.Select(Section)),
-            new XElement(Tc6 + "body",
-                new XElement(Tc6 + "ST", new XElement(Xhtml + "p", new XCData(pou.Body)))),
-            Documentation(pou.Comment));
-
-    private static XElement Section(StVarSection section)
+    private static void Scaling(IndentedXmlWriter xml, string language)
     {
-        var element = new XElement(Tc6 + (section.Kind switch
+        xml.WriteStartElement(language);
+        xml.WriteStartElement("scaling");
+        xml.WriteAttributeString("x", "1");
+        xml.WriteAttributeString("y", "1");
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+    }
+
+    private static void DataType(IndentedXmlWriter xml, StDataType type)
+    {
+        xml.WriteStartElement("dataType");
+        xml.WriteAttributeString("name", type.Name);
+        xml.WriteStartElement("baseType");
+        switch (type)
+        {
+            case StEnumType enumeration:
+                xml.WriteStartElement("enum");
+                xml.WriteStartElement("values");
+                foreach (var value in enumeration.Values) xml.WriteEmptyElement("value", "name", value);
+                xml.WriteEndElement();
+                xml.WriteEndElement();
+                break;
+            case StStructType structure:
+                xml.WriteStartElement("struct");
+                foreach (var member in structure.Members) Variable(xml, member);
+                xml.WriteEndElement();
+                break;
+            default:
+                throw new ArgumentException($"No TC6 form for {type.GetType().Name}.", nameof(type));
+        }
+        xml.WriteEndElement();
+        Documentation(xml, type.Comment);
+        xml.WriteEndElement();
+    }
+
+    private static void Pou(IndentedXmlWriter xml, StPou pou)
+    {
+        xml.WriteStartElement("pou");
+        xml.WriteAttributeString("name", pou.Name);
+        xml.WriteAttributeString("pouType", pou.Kind == StPouKind.Program ? "program" : "functionBlock");
+        xml.WriteStartElement("interface");
+        foreach (var section in pou.Sections) Section(xml, section);
+        xml.WriteEndElement();
+        xml.WriteStartElement("body");
+        xml.WriteStartElement("ST");
+        xml.WriteStartElement(XhtmlParagraph);
+        xml.WriteCData(pou.Body);
+        xml.WriteFullEndElement();
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+        Documentation(xml, pou.Comment);
+        xml.WriteEndElement();
+    }
+
+    private static void Section(IndentedXmlWriter xml, StVarSection section)
+    {
+        xml.WriteStartElement(section.Kind switch
         {
             StVarKind.Input => "inputVars",
             StVarKind.Output => "outputVars",
             _ => "localVars",
-        }));
-        if (section.Kind == StVarKind.Constant) element.Add(new XAttribute("constant", "true"));
-        element.Add(section.Variables.Select(Variable));
-        var notes = section.Notes.Concat(section.Variables.SelectMany(v => v.Initial is { } value ? ValueNotes(value, v.Name) : []));
-        element.Add(Documentation(notes.ToArray()));
-        return element;
+        });
+        if (section.Kind == StVarKind.Constant) xml.WriteAttributeString("constant", "true");
+        foreach (var variable in section.Variables) Variable(xml, variable);
+        var notes = new List<string>(section.Notes);
+        foreach (var variable in section.Variables)
+            if (variable.Initial is { } value) AddValueNotes(notes, value, variable.Name);
+        Documentation(xml, notes);
+        xml.WriteEndElement();
     }
 
     /// <summary>The comments inside a structure value, in order; a comment after a value names the member it belongs to.</summary>
-    private static IEnumerable<string> ValueNotes(StValue value, string path)
+    private static void AddValueNotes(List<string> notes, StValue value, string path)
     {
-        if (value is not StStructValue structure) yield break;
+        if (value is not StStructValue structure) return;
         foreach (var member in structure.Members)
         {
-            var memberPath = path + "." + member.Member;
-            foreach (var note in member.Notes) yield return note;
-            foreach (var note in ValueNotes(member.Value, memberPath)) yield return note;
-            if (member.Note is { } after) yield return memberPath + ": " + after;
+            notes.AddRange(member.Notes);
+            if (member.Value is StStructValue) AddValueNotes(notes, member.Value, path + "." + member.Member);
+            if (member.Note is { } after) notes.Add(path + "." + member.Member + ": " + after);
         }
     }
 
-    private static XElement Variable(StVariable variable) =>
-        new(Tc6 + "variable",
-            new XAttribute("name", variable.Name),
-            new XElement(Tc6 + "type", Type(variable.Type)),
-            variable.Initial is { } initial ? new XElement(Tc6 + "initialValue", Value(initial)) : null,
-            Documentation(variable.Comment is { } comment ? [comment] : []));
-
-    private static XElement Type(StType type) => type switch
+    private static void Variable(IndentedXmlWriter xml, StVariable variable)
     {
-        StElementaryType elementary => new XElement(Tc6 + elementary.Name),
-        StStringType text => new XElement(Tc6 + "string", new XAttribute("length", text.Length)),
-        StDerivedType derived => new XElement(Tc6 + "derived", new XAttribute("name", derived.Name)),
-        _ => throw new ArgumentException($"No TC6 form for {type.GetType().Name}.", nameof(type)),
-    };
+        xml.WriteStartElement("variable");
+        xml.WriteAttributeString("name", variable.Name);
+        xml.WriteStartElement("type");
+        Type(xml, variable.Type);
+        xml.WriteEndElement();
+        if (variable.Initial is { } initial)
+        {
+            xml.WriteStartElement("initialValue");
+            Value(xml, initial);
+            xml.WriteEndElement();
+        }
+        if (variable.Comment is { } comment) Documentation(xml, [comment]);
+        xml.WriteEndElement();
+    }
+
+    private static void Type(IndentedXmlWriter xml, StType type)
+    {
+        switch (type)
+        {
+            case StElementaryType elementary:
+                // A name from a record, not from this file: XmlWriter checked it; so does this.
+                xml.WriteStartElement(XmlConvert.VerifyNCName(elementary.Name));
+                xml.WriteEndElement();
+                break;
+            case StStringType text:
+                xml.WriteEmptyElement("string", "length", text.Length.ToString(CultureInfo.InvariantCulture));
+                break;
+            case StDerivedType derived:
+                xml.WriteEmptyElement("derived", "name", derived.Name);
+                break;
+            default:
+                throw new ArgumentException($"No TC6 form for {type.GetType().Name}.", nameof(type));
+        }
+    }
 
     /// <summary>A simple value keeps its Structured Text literal (a string with its quotes and $ escapes).</summary>
-    private static XElement Value(StValue value) => value switch
+    private static void Value(IndentedXmlWriter xml, StValue value)
     {
-        StSimpleValue simple => new XElement(Tc6 + "simpleValue", new XAttribute("value", simple.Literal)),
-        StStructValue structure => new XElement(Tc6 + "structValue",
-            structure.Members.Select(m => new XElement(Tc6 + "value", new XAttribute("member", m.Member), Value(m.Value)))),
-        _ => throw new ArgumentException($"No TC6 form for {value.GetType().Name}.", nameof(value)),
-    };
+        switch (value)
+        {
+            case StSimpleValue simple:
+                xml.WriteEmptyElement("simpleValue", "value", simple.Literal);
+                break;
+            case StStructValue structure:
+                xml.WriteStartElement("structValue");
+                for (var i = 0; i < structure.Members.Count; i++)
+                {
+                    var member = structure.Members[i];
+                    xml.WriteStartElement("value");
+                    xml.WriteAttributeString("member", member.Member);
+                    Value(xml, member.Value);
+                    xml.WriteEndElement();
+                }
+                xml.WriteEndElement();
+                break;
+            default:
+                throw new ArgumentException($"No TC6 form for {value.GetType().Name}.", nameof(value));
+        }
+    }
 
-    private static XElement Configuration(Plant plant, StPou program) =>
-        new(Tc6 + "configuration",
-            new XAttribute("name", PlcOpenNames.Configuration),
-            new XElement(Tc6 + "resource",
-                new XAttribute("name", Resource),
-                new XElement(Tc6 + "task",
-                    new XAttribute("name", PlcOpenNames.Task),
-                    new XAttribute("interval", StLiterals.TimeOfScans(1, plant.CycleSeconds)),
-                    new XAttribute("priority", TaskPriority),
-                    new XElement(Tc6 + "pouInstance",
-                        new XAttribute("name", ProgramInstance),
-                        new XAttribute("typeName", program.Name)),
-                    Documentation(
-                    [
-                        "The plant's cycle: the filter constants and the delays assume it.",
-                        $"Priority {TaskPriority} is a placeholder: set it to the controller's task plan.",
-                    ]))));
+    private static void Configuration(IndentedXmlWriter xml, Plant plant, StPou program)
+    {
+        xml.WriteStartElement("configuration");
+        xml.WriteAttributeString("name", PlcOpenNames.Configuration);
+        xml.WriteStartElement("resource");
+        xml.WriteAttributeString("name", Resource);
+        xml.WriteStartElement("task");
+        xml.WriteAttributeString("name", PlcOpenNames.Task);
+        xml.WriteAttributeString("interval", StLiterals.TimeOfScans(1, plant.CycleSeconds));
+        xml.WriteAttributeString("priority", TaskPriority.ToString(CultureInfo.InvariantCulture));
+        xml.WriteStartElement("pouInstance");
+        xml.WriteAttributeString("name", ProgramInstance);
+        xml.WriteAttributeString("typeName", program.Name);
+        xml.WriteEndElement();
+        Documentation(xml,
+        [
+            "The plant's cycle: the filter constants and the delays assume it.",
+            $"Priority {TaskPriority} is a placeholder: set it to the controller's task plan.",
+        ]);
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+        xml.WriteEndElement();
+    }
 
     /// <summary>
     /// A documentation element, one XHTML paragraph with a line per entry, or nothing when
     /// there are no lines. <see cref="PlcOpenReader"/> reads the lines back.
     /// </summary>
-    internal static XElement? Documentation(IReadOnlyList<string> lines) =>
-        lines.Count == 0
-            ? null
-            : new XElement(Tc6 + "documentation", new XElement(Xhtml + "p", string.Join("\n", lines.Select(XmlSafeText.Line))));
+    private static void Documentation(IndentedXmlWriter xml, IReadOnlyList<string> lines)
+    {
+        if (lines.Count == 0) return;
+        xml.WriteStartElement("documentation");
+        xml.WriteStartElement(XhtmlParagraph);
+        for (var i = 0; i < lines.Count; i++)
+        {
+            if (i > 0) xml.WriteString("\n");
+            xml.WriteString(XmlSafeText.Line(lines[i]));
+        }
+        xml.WriteFullEndElement();
+        xml.WriteEndElement();
+    }
 }

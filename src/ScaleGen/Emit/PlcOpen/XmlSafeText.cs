@@ -13,6 +13,7 @@ public static class XmlSafeText
     /// <summary>Text with every character XML 1.0 cannot hold (NUL, most controls, lone surrogates, U+FFFE/U+FFFF) as '?'.</summary>
     public static string Text(string? text)
     {
+        if (text is not null && IsPrintableAscii(text)) return text;
         var result = new StringBuilder();
         var value = text ?? "";
         for (var i = 0; i < value.Length; i++)
@@ -31,6 +32,7 @@ public static class XmlSafeText
     /// <summary>One line: <see cref="Text"/>, with tabs and line breaks (also U+2028, U+2029, U+0085) as spaces.</summary>
     public static string Line(string? text)
     {
+        if (text is not null && IsPrintableAscii(text)) return text;
         var result = new StringBuilder(Text(text));
         for (var i = 0; i < result.Length; i++)
             if (result[i] is '\t' or '\n' or '\r' or '\u0085' or '\u2028' or '\u2029') result[i] = ' ';
@@ -44,4 +46,11 @@ public static class XmlSafeText
         while (line.Contains("--", StringComparison.Ordinal)) line = line.Replace("--", "- -", StringComparison.Ordinal);
         return line.EndsWith('-') ? line + " " : line;
     }
+
+    /// <summary>
+    /// True for text that <see cref="Text"/> and <see cref="Line"/> give back unchanged, which
+    /// is nearly all of it: a large plant writes hundreds of thousands of lines, and this case
+    /// then costs no copy.
+    /// </summary>
+    private static bool IsPrintableAscii(string text) => !text.AsSpan().ContainsAnyExceptInRange(' ', '~');
 }
