@@ -191,6 +191,20 @@ public class ReportTests
     }
 
     [Fact]
+    public void Shared_chart_parts_are_defined_before_they_are_used()
+    {
+        var html = Html();
+        var uses = System.Text.RegularExpressions.Regex.Matches(html, "<use href=\"#([^\"]+)\"/>");
+        // every chart places the frame and a current axis
+        Assert.Equal(2 * CompileTestPlant().Plant.Points.Length, uses.Count);
+        foreach (System.Text.RegularExpressions.Match use in uses)
+        {
+            var definition = html.IndexOf($" id=\"{use.Groups[1].Value}\"", StringComparison.Ordinal);
+            Assert.True(definition >= 0 && definition < use.Index, $"#{use.Groups[1].Value} is not defined before it is used");
+        }
+    }
+
+    [Fact]
     public void The_page_is_deterministic_and_culture_invariant()
     {
         var html = Html();

@@ -11,6 +11,11 @@ namespace ScaleGen.Emit.Report;
 /// changes only that point's lines.
 /// </summary>
 /// <remarks>
+/// What every chart draws alike (the frame, and the current axis with its grid and labels,
+/// one per span of current) is drawn once, in a hidden SVG before the first point, and
+/// each chart places it with &lt;use&gt;: on a large plant it was a fifth of the page.
+/// </remarks>
+/// <remarks>
 /// The page is streamed (<see cref="Write"/>): a plant of 50,000 points makes a page of
 /// hundreds of MB, so it is built a point at a time and spilled to the output. The parts
 /// written once per point or loop row are appended piece by piece with their numbers
@@ -25,8 +30,8 @@ public sealed class ReportHtml
     private readonly StringBuilder _html = new();
     private readonly ReportNumbers _numbers = new();
 
-    /// <summary>The x grid, its labels and nothing else depend on the span of the curve: made once per span.</summary>
-    private readonly Dictionary<(double From, double To), string> _currentGrids = new();
+    /// <summary>The id of the shared current axis (grid, labels and title) of each span of current, in order of first use.</summary>
+    private readonly Dictionary<(double From, double To), string> _currentAxes = new();
 
     private ReportHtml(TextWriter output, ReportData data)
     {
@@ -227,6 +232,7 @@ public sealed class ReportHtml
         html.Append("<section id=\"points\">\n<h2>Points</h2>\n");
         html.Append("<p>Each chart is the point's transfer curve: the value it shows for a loop current from 3 to 22 mA (from 0 mA on a signal without live zero), from the same arithmetic as the generated code (before the fault action and the filter). Shaded columns are the current bands; shaded rows are alarm deadbands between setpoint and reset; dots mark the trip currents.</p>\n");
         html.Append("<p class=\"legend\"><span><i class=\"sw-curve\"></i>value</span><span><i class=\"sw-fault\"></i>FAULT_LOW / FAULT_HIGH (value follows on-fault)</span><span><i class=\"sw-range\"></i>UNDER / OVER</span><span><i class=\"sw-card\"></i>CARD_FAULT (beyond the card's limits)</span><span><i class=\"sw-hi\"></i>HH / LL setpoint and deadband</span><span><i class=\"sw-lo\"></i>H / L setpoint and deadband</span></p>\n");
+        SharedChartParts();
         html.Append("<nav class=\"toc\">");
         var first = true;
         foreach (var p in _data.Points)
@@ -245,8 +251,10 @@ public sealed class ReportHtml
         html.Append("</section>\n");
     }
 
-    private static readonly string AlarmTableHead =
-        "<table class=\"alarms\">\n<thead><tr><th>alarm</th><th class=\"num\">setpoint</th><th class=\"num\">deadband</th><th class=\"num\">resets at</th><th class=\"num\">trip current</th><th class=\"num\">reset current</th><th class=\"num\">delay / clear</th><th class=\"num\">priority</th><th>text</th></tr></thead>\n<tbody>\n";
+    // The number columns (setpoint .. priority) are aligned by the style sheet rather than by
+    // a class on each cell: the table repeats on every point.
+    private const string AlarmTableHead =
+        "<table class=\"alarms\">\n<thead><tr><th>alarm</th><th>setpoint</th><th>deadband</th><th>resets at</th><th>trip current</th><th>reset current</th><th>delay / clear</th><th>priority</th><th>text</th></tr></thead>\n<tbody>\n";
 
     private void PointCard(ReportPoint p)
     {
@@ -284,15 +292,15 @@ public sealed class ReportHtml
             foreach (var a in p.Alarms)
             {
                 html.Append("<tr><td><b class=\"kind ").Append(KindClass(a.Kind)).Append("\">").Append(a.Kind)
-                    .Append("</b></td><td class=\"num\">").Append(N(a.Setpoint)).Append(' ').AppendEncoded(p.Unit)
-                    .Append("</td><td class=\"num\">").Append(_numbers.Significant4(a.Deadband))
-                    .Append("</td><td class=\"num\">").Append(_numbers.Significant4(a.ResetValue))
-                    .Append("</td><td class=\"num\">").AppendFixed(a.TripMa, 2).Append(" mA");
+                    .Append("</b></td><td>").Append(N(a.Setpoint)).Append(' ').AppendEncoded(p.Unit)
+                    .Append("</td><td>").Append(_numbers.Significant4(a.Deadband))
+                    .Append("</td><td>").Append(_numbers.Significant4(a.ResetValue))
+                    .Append("</td><td>").AppendFixed(a.TripMa, 2).Append(" mA");
                 Raw(a.TripRaw);
-                html.Append("</td><td class=\"num\">").AppendFixed(a.ResetMa, 2).Append(" mA");
+                html.Append("</td><td>").AppendFixed(a.ResetMa, 2).Append(" mA");
                 Raw(a.ResetRaw);
-                html.Append("</td><td class=\"num\">").Append(N(a.DelaySeconds)).Append(" s / ").Append(N(a.ClearSeconds))
-                    .Append(" s</td><td class=\"num\">").Append(a.Priority).Append("</td><td>").AppendEncoded(a.Text ?? "").Append("</td></tr>\n");
+                html.Append("</td><td>").Append(N(a.DelaySeconds)).Append(" s / ").Append(N(a.ClearSeconds))
+                    .Append(" s</td><td>").Append(a.Priority).Append("</td><td>").AppendEncoded(a.Text ?? "").Append("</td></tr>\n");
             }
             html.Append("</tbody>\n</table>\n");
         }
@@ -315,19 +323,16 @@ public sealed class ReportHtml
     private static readonly string ChartOpen = $"<svg class=\"curve\" viewBox=\"0 0 {C(ChartWidth)} {C(ChartHeight)}\" role=\"img\" aria-label=\"transfer curve of ";
     private static readonly string BandWidth = $"\" y=\"{C(PlotTop)}\" width=\"";
     private static readonly string BandTitle = $"\" height=\"{C(PlotBottom - PlotTop)}\"><title>";
-    private static readonly string ValueGridStart = $"<line class=\"grid\" x1=\"{C(PlotLeft)}\" y1=\"";
-    private static readonly string ValueGridEnd = $"\" x2=\"{C(PlotRight)}\" y2=\"";
-    private static readonly string ValueLabel = $"\"/><text class=\"ylabel\" x=\"{C(PlotLeft - 5)}\" y=\"";
-    private static readonly string AxisTitles =
-        $"<text class=\"axis-title\" x=\"{C(PlotRight)}\" y=\"{C(PlotBottom + 30)}\" text-anchor=\"end\">loop current, mA</text><text class=\"axis-title\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop - 8)}\" text-anchor=\"start\">";
+    private static readonly string ValueGridStart = $"<path class=\"grid\" d=\"M{C(PlotLeft)} ";
+    private static readonly string ValueLabel = $"H{C(PlotRight)}\"/><text class=\"ylabel\" x=\"{C(PlotLeft - 5)}\" y=\"";
+    private static readonly string UnitTitle = $"<text class=\"axis-title\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop - 8)}\" text-anchor=\"start\">";
     private static readonly string DeadbandStart = $"\"><rect class=\"deadband\" x=\"{C(PlotLeft)}\" y=\"";
     private static readonly string DeadbandHeight = $"\" width=\"{C(PlotRight - PlotLeft)}\" height=\"";
     private static readonly string SetpointStart = $"\"/><line class=\"setpoint\" x1=\"{C(PlotLeft)}\" y1=\"";
     private static readonly string SetpointEnd = $"\" x2=\"{C(PlotRight)}\" y2=\"";
     private static readonly string LabelAtRight = $"<text class=\"alarm-label\" x=\"{C(PlotRight - 4)}\" y=\"";
     private static readonly string LabelAtLeft = $"<text class=\"alarm-label\" x=\"{C(PlotLeft + 4)}\" y=\"";
-    private static readonly string Frame =
-        $"<rect class=\"frame\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(PlotBottom - PlotTop)}\"/>\n</svg>\n";
+    private const string FrameId = "chart-frame";
 
     private void TransferChart(ReportPoint p)
     {
@@ -356,29 +361,27 @@ public sealed class ReportHtml
                 .Append(BandWidth).AppendFixed(x2 - x1, 1).Append(BandTitle).Append(band.Status).Append(": ")
                 .AppendFixed(band.FromMa, 2).Append(" .. ").AppendFixed(band.ToMa, 2).Append(" mA</title></rect>\n");
         }
-        Span<char> y = stackalloc char[ReportNumbers.MaxFixedLength];
         for (var k = first; k <= last; k++)
         {
             var tick = Tick(k, step);
             var at = Y(tick);
-            var yText = y[..ReportNumbers.FormatFixed(y, at, 1)];
-            html.Append(ValueGridStart).Append(yText).Append(ValueGridEnd).Append(yText).Append(ValueLabel)
+            html.Append(ValueGridStart).AppendFixed(at, 1).Append(ValueLabel)
                 .AppendFixed(at + 3.5, 1).Append("\">").Append(N(tick)).Append("</text>\n");
         }
-        html.Append(CurrentGrid(curve.FromMa, curve.ToMa));
-        html.Append(AxisTitles).AppendEncoded(p.Unit).Append("</text>\n");
+        html.Append("<use href=\"#").Append(_currentAxes[(curve.FromMa, curve.ToMa)]).Append("\"/>\n");
+        html.Append(UnitTitle).AppendEncoded(p.Unit).Append("</text>\n");
         foreach (var a in p.Alarms)
         {
             var (top, bottom) = (Y(Math.Max(a.Setpoint, a.ResetValue)), Y(Math.Min(a.Setpoint, a.ResetValue)));
-            var setpointText = y[..ReportNumbers.FormatFixed(y, Y(a.Setpoint), 1)];
+            var setpointAt = Y(a.Setpoint);
             // One line per alarm: moving a setpoint changes this line (and the alarm table's row) only.
             html.Append("<g class=\"alarm ").Append(KindClass(a.Kind)).Append(DeadbandStart).AppendFixed(top, 1)
                 .Append(DeadbandHeight).AppendFixed(Math.Max(bottom - top, 0), 1)
-                .Append(SetpointStart).Append(setpointText).Append(SetpointEnd).Append(setpointText).Append("\"/>");
+                .Append(SetpointStart).AppendFixed(setpointAt, 1).Append(SetpointEnd).AppendFixed(setpointAt, 1).Append("\"/>");
             if (a.TripMa >= curve.FromMa && a.TripMa <= curve.ToMa)
-                html.Append("<circle cx=\"").AppendFixed(X(a.TripMa), 1).Append("\" cy=\"").Append(setpointText).Append("\" r=\"3.2\"/>");
+                html.Append("<circle cx=\"").AppendFixed(X(a.TripMa), 1).Append("\" cy=\"").AppendFixed(setpointAt, 1).Append("\" r=\"3.2\"/>");
             var labelAtRight = a.Kind is "HH" or "LL";
-            html.Append(labelAtRight ? LabelAtRight : LabelAtLeft).AppendFixed(Y(a.Setpoint) - 4, 1)
+            html.Append(labelAtRight ? LabelAtRight : LabelAtLeft).AppendFixed(setpointAt - 4, 1)
                 .Append(labelAtRight ? "\" text-anchor=\"end\">" : "\" text-anchor=\"start\">")
                 .Append(a.Kind).Append(' ').Append(N(a.Setpoint)).Append("</text></g>\n");
         }
@@ -393,7 +396,7 @@ public sealed class ReportHtml
             }
             html.Append("\"/>\n");
         }
-        html.Append(Frame);
+        html.Append("<use href=\"#" + FrameId + "\"/>\n</svg>\n");
 
         void Widen(double value)
         {
@@ -402,15 +405,29 @@ public sealed class ReportHtml
         }
     }
 
-    /// <summary>The vertical grid lines every 4 mA and their labels, the same for every curve over one span of current.</summary>
-    private string CurrentGrid(double fromMa, double toMa)
+    /// <summary>
+    /// The parts every chart draws alike, once for the page: the frame, and per span of
+    /// current the axis below the plot (a grid line and label every 4 mA, and its title).
+    /// They carry their style inline (see <see cref="ChartText"/>).
+    /// </summary>
+    private void SharedChartParts()
     {
-        if (_currentGrids.TryGetValue((fromMa, toMa), out var grid)) return grid;
-        var text = new StringBuilder();
-        double X(double ma) => PlotLeft + (ma - fromMa) / (toMa - fromMa) * (PlotRight - PlotLeft);
-        for (var ma = Math.Ceiling(fromMa / 4) * 4; ma <= toMa; ma += 4)
-            text.Append($"<line class=\"grid\" x1=\"{C(X(ma))}\" y1=\"{C(PlotTop)}\" x2=\"{C(X(ma))}\" y2=\"{C(PlotBottom)}\"/><text class=\"xlabel\" x=\"{C(X(ma))}\" y=\"{C(PlotBottom + 14)}\">{N(ma)}</text>\n");
-        return _currentGrids[(fromMa, toMa)] = text.ToString();
+        var html = _html;
+        html.Append("<svg class=\"curve chart-parts\" aria-hidden=\"true\">\n<defs>\n");
+        html.Append($"<rect id=\"{FrameId}\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(PlotBottom - PlotTop)}\" style=\"{FrameLine}\"/>\n");
+        foreach (var point in _data.Points)
+        {
+            var (fromMa, toMa) = (point.Curve.FromMa, point.Curve.ToMa);
+            if (_currentAxes.ContainsKey((fromMa, toMa))) continue;
+            var id = "chart-current-axis-" + (_currentAxes.Count + 1).ToString(CultureInfo.InvariantCulture);
+            _currentAxes.Add((fromMa, toMa), id);
+            html.Append($"<g id=\"{id}\" style=\"{ChartText}; text-anchor: middle\">\n");
+            double X(double ma) => PlotLeft + (ma - fromMa) / (toMa - fromMa) * (PlotRight - PlotLeft);
+            for (var ma = Math.Ceiling(fromMa / 4) * 4; ma <= toMa; ma += 4)
+                html.Append($"<path d=\"M{C(X(ma))} {C(PlotTop)}V{C(PlotBottom)}\" style=\"fill: none; {GridLine}\"/><text x=\"{C(X(ma))}\" y=\"{C(PlotBottom + 14)}\">{N(ma)}</text>\n");
+            html.Append($"<text x=\"{C(PlotRight)}\" y=\"{C(PlotBottom + 30)}\" style=\"{AxisTitleText}; text-anchor: end\">loop current, mA</text>\n</g>\n");
+        }
+        html.Append("</defs>\n</svg>\n");
     }
 
     private static string BandClass(string status) => status switch
@@ -480,7 +497,15 @@ public sealed class ReportHtml
     /// <summary>An SVG coordinate: one decimal is finer than any printer dot at this size.</summary>
     private static string C(double value) => DisplayNumbers.Fixed(value, 1);
 
-    private const string Style = """
+    // The look of the chart parts drawn through <use>. A browser may keep the page's style
+    // sheet out of what a <use> draws (Chromium does), so those parts carry their style
+    // inline, from the same text as the rules the per-chart parts get.
+    private const string ChartText = "font-size: 10.5px; fill: var(--muted)";
+    private const string AxisTitleText = "font-size: 11px; fill: var(--ink)";
+    private const string GridLine = "stroke: #e6e9ee; stroke-width: 1";
+    private const string FrameLine = "fill: none; stroke: #9aa3b0; stroke-width: 1";
+
+    private const string Style = $$"""
         :root { --ink: #1c2230; --muted: #5b6474; --rule: #d5dae2; --accent: #1f4e9c; --bad: #b3261e; --warn: #b85c00; --hi: #b3261e; --lo: #cc7a00; }
         * { box-sizing: border-box; }
         body { font: 14px/1.45 "Segoe UI", Roboto, "Helvetica Neue", Arial, "DejaVu Sans", sans-serif; color: var(--ink); margin: 0 auto; max-width: 1020px; padding: 28px 32px 48px; background: #fff; }
@@ -544,16 +569,16 @@ public sealed class ReportHtml
         .facts th { width: 84px; color: var(--muted); font-weight: 500; font-size: 12px; }
         .facts td, .facts th { padding: 2px 6px; vertical-align: baseline; }
         table.alarms { margin-top: 8px; font-size: 13px; }
+        table.alarms th:nth-child(n+2):nth-child(-n+8), table.alarms td:nth-child(n+2):nth-child(-n+8) { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
         .kind.hi { color: var(--hi); }
         .kind.lo { color: var(--lo); }
         .no-alarms { color: var(--muted); font-size: 13px; }
         svg.curve { width: 100%; height: auto; display: block; }
-        svg.curve text { font-size: 10.5px; fill: var(--muted); }
+        svg.curve.chart-parts { position: absolute; width: 0; height: 0; overflow: hidden; }
+        svg.curve text { {{ChartText}}; }
         svg.curve .ylabel { text-anchor: end; }
-        svg.curve .xlabel { text-anchor: middle; }
-        svg.curve .axis-title { font-size: 11px; fill: var(--ink); }
-        svg.curve .grid { stroke: #e6e9ee; stroke-width: 1; }
-        svg.curve .frame { fill: none; stroke: #9aa3b0; stroke-width: 1; }
+        svg.curve .axis-title { {{AxisTitleText}}; }
+        svg.curve .grid { {{GridLine}}; }
         svg.curve .band.fault { fill: #f4d4d2; }
         svg.curve .band.range { fill: #fbeccf; }
         svg.curve .band.card { fill: #dcdfe4; }

@@ -33,15 +33,15 @@ internal sealed class ReportNumbers
         return cache[value] = format(value);
     }
 
-    /// <summary>Room for any fixed text <see cref="FormatFixed"/> writes on its fast path, and for most others.</summary>
-    public const int MaxFixedLength = 64;
+    /// <summary>Room for any fixed text of a value under 1e9 (the fast path), and for most others.</summary>
+    public const int FixedLength = 32;
 
     private static readonly double[] Scales = { 1, 10, 100, 1000, 10000 };
     private static readonly long[] Units = { 1, 10, 100, 1000, 10000 };
 
     /// <summary>
     /// Writes <see cref="DisplayNumbers.Fixed"/>(<paramref name="value"/>, <paramref name="decimals"/>)
-    /// (0 to 4 decimals) into <paramref name="destination"/> and returns its length.
+    /// (0 to 4 decimals) into <paramref name="destination"/>; false if it does not fit.
     /// </summary>
     /// <remarks>
     /// Fast path: the value times 10^decimals, rounded to the nearest integer, is the text's
@@ -49,20 +49,22 @@ internal sealed class ReportNumbers
     /// rounding (below 1e-7 under 1e9) or the formatter's treatment of a tie could tip it
     /// the other way: those, and huge or non-finite values, go through the formatter itself.
     /// </remarks>
-    public static int FormatFixed(Span<char> destination, double value, int decimals)
+    public static bool TryFormatFixed(Span<char> destination, double value, int decimals, out int written)
     {
         var scaled = value * Scales[decimals];
         if (Math.Abs(scaled) < 1e9)
         {
             var floor = Math.Floor(scaled);
             var above = scaled - floor;
-            if (Math.Abs(above - 0.5) > 1e-6)
-                return WriteUnits(destination, (long)floor + (above > 0.5 ? 1 : 0), decimals);
+            if (Math.Abs(above - 0.5) > 1e-6 && destination.Length >= FixedLength)
+            {
+                written = WriteUnits(destination, (long)floor + (above > 0.5 ? 1 : 0), decimals);
+                return true;
+            }
         }
         var exact = DisplayNumbers.Fixed(value, decimals);
-        if (exact.Length > destination.Length) throw new ArgumentException("The number's text does not fit.", nameof(destination));
-        exact.CopyTo(destination);
-        return exact.Length;
+        written = exact.Length;
+        return exact.AsSpan().TryCopyTo(destination);
     }
 
     /// <summary>A count of 10^-decimals as fixed text; zero has no sign ("-0.0" says nothing a reader can use).</summary>
@@ -94,8 +96,10 @@ internal static class ReportText
     /// <summary>Appends <see cref="DisplayNumbers.Fixed"/>(<paramref name="value"/>, <paramref name="decimals"/>).</summary>
     public static StringBuilder AppendFixed(this StringBuilder text, double value, int decimals)
     {
-        Span<char> buffer = stackalloc char[ReportNumbers.MaxFixedLength];
-        return text.Append(buffer[..ReportNumbers.FormatFixed(buffer, value, decimals)]);
+        Span<char> buffer = stackalloc char[ReportNumbers.FixedLength];
+        return ReportNumbers.TryFormatFixed(buffer, value, decimals, out var written)
+            ? text.Append(buffer[..written])
+            : text.Append(DisplayNumbers.Fixed(value, decimals));
     }
 
     /// <summary>Appends text from the plant HTML-encoded (most of it needs no encoding, and then no copy is made).</summary>
