@@ -50,6 +50,7 @@ public class ReportTests
     {
         var invariant = ReportJson.Write(Data());
         Assert.Equal(invariant, TestInputs.UnderCulture("de-DE", () => ReportJson.Write(Data())));
+        Assert.Equal(invariant, TestInputs.UnderCulture("sv-SE", () => ReportJson.Write(Data())));
     }
 
     [Fact]
@@ -210,6 +211,8 @@ public class ReportTests
         var html = Html();
         Assert.Equal(html, Html());
         Assert.Equal(html, TestInputs.UnderCulture("de-DE", Html));
+        // a culture whose minus sign is not '-' (U+2212): card limits and raw counts are negative
+        Assert.Equal(html, TestInputs.UnderCulture("sv-SE", Html));
     }
 
     [Theory]

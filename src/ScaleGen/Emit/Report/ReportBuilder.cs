@@ -1,4 +1,5 @@
 using System.Collections.Immutable;
+using System.Globalization;
 using ScaleGen.Engine;
 using ScaleGen.Model;
 
@@ -49,7 +50,7 @@ public static class ReportBuilder
         var cards = plant.Cards
             .Select(c => new ReportCard(c.Name, c.RawType.ToString(), c.RawLow, c.RawHigh, c.ElectricalLow, c.ElectricalHigh,
                 c.IsVoltage ? "V" : "mA", c.LimitLow, c.LimitHigh,
-                c.FaultCodes.IsDefaultOrEmpty ? "none" : string.Join(", ", c.FaultCodes),
+                c.FaultCodes.IsDefaultOrEmpty ? "none" : string.Join(", ", c.FaultCodes.Select(code => code.ToString(CultureInfo.InvariantCulture))),
                 c.InputOhms, plant.Points.Count(p => p.Card.Name == c.Name)))
             .ToImmutableArray();
 

@@ -59,7 +59,7 @@ public sealed class ReportHtml
         html.Append("-->\n");
         html.Append("<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
         html.Append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
-        html.Append($"<title>Review report: {E(_data.Title)}</title>\n");
+        html.Append(Invariant, $"<title>Review report: {E(_data.Title)}</title>\n");
         html.Append("<style>\n").Append(Style).Append("</style>\n</head>\n<body>\n");
 
         Title();
@@ -82,8 +82,8 @@ public sealed class ReportHtml
     {
         var html = _html;
         html.Append("<header class=\"masthead\">\n");
-        html.Append($"<p class=\"kicker\">Review report</p>\n<h1>{E(_data.Title)}</h1>\n");
-        html.Append($"<p class=\"meta\">{_data.Summary.PointCount} points &middot; task cycle {N(_data.CycleSeconds * 1000)} ms &middot; scalegen {E(_data.ToolVersion)}</p>\n");
+        html.Append(Invariant, $"<p class=\"kicker\">Review report</p>\n<h1>{E(_data.Title)}</h1>\n");
+        html.Append(Invariant, $"<p class=\"meta\">{_data.Summary.PointCount} points &middot; task cycle {N(_data.CycleSeconds * 1000)} ms &middot; scalegen {E(_data.ToolVersion)}</p>\n");
         html.Append("</header>\n");
         html.Append("<aside class=\"caution\">").Append(E(_data.Cautions[0])).Append("</aside>\n");
     }
@@ -96,27 +96,27 @@ public sealed class ReportHtml
         Tile(s.PointCount.ToString(CultureInfo.InvariantCulture), "points", null);
         Tile(s.AlarmCount.ToString(CultureInfo.InvariantCulture), "alarms", null);
         Tile(s.LoopCount.ToString(CultureInfo.InvariantCulture), "loop budgets",
-            s.LoopsFailing == 0 ? "all pass" : $"{s.LoopsFailing} failing", s.LoopsFailing > 0);
+            s.LoopsFailing == 0 ? "all pass" : string.Create(Invariant, $"{s.LoopsFailing} failing"), s.LoopsFailing > 0);
         Tile(s.Errors.ToString(CultureInfo.InvariantCulture), "errors",
-            $"{s.Warnings} warning{(s.Warnings == 1 ? "" : "s")}", s.Errors > 0 || s.Warnings > 0);
+            string.Create(Invariant, $"{s.Warnings} warning{(s.Warnings == 1 ? "" : "s")}"), s.Errors > 0 || s.Warnings > 0);
         html.Append("</div>\n<div class=\"columns\">\n<div>\n<h3>Points by measure</h3>\n<table class=\"compact\">\n");
         html.Append("<thead><tr><th>measure</th><th class=\"num\">points</th><th class=\"share\"></th></tr></thead>\n<tbody>\n");
         foreach (var m in s.ByMeasure)
-            html.Append($"<tr><td>{E(m.Measure)}</td><td class=\"num\">{m.Points}</td><td class=\"share\">{Bar(100.0 * m.Points / Math.Max(1, s.PointCount), "bar-measure")}</td></tr>\n");
+            html.Append(Invariant, $"<tr><td>{E(m.Measure)}</td><td class=\"num\">{m.Points}</td><td class=\"share\">{Bar(100.0 * m.Points / Math.Max(1, s.PointCount), "bar-measure")}</td></tr>\n");
         html.Append("</tbody>\n</table>\n</div>\n<div>\n<h3>Source files</h3>\n<table class=\"compact\">\n");
         html.Append("<thead><tr><th>file</th><th>sha256</th></tr></thead>\n<tbody>\n");
         foreach (var source in _data.Sources)
-            html.Append($"<tr><td>{E(source.File)}</td><td><code class=\"hash\">{E(source.Sha256)}</code></td></tr>\n");
+            html.Append(Invariant, $"<tr><td>{E(source.File)}</td><td><code class=\"hash\">{E(source.Sha256)}</code></td></tr>\n");
         html.Append("</tbody>\n</table>\n</div>\n</div>\n");
 
         html.Append("<h3>Cards</h3>\n<table>\n<thead><tr><th>card</th><th>counts</th><th>limits</th><th>fault codes</th><th>type</th><th class=\"num\">input</th><th class=\"num\">points</th></tr></thead>\n<tbody>\n");
         foreach (var c in _data.Cards)
-            html.Append($"<tr><td><b>{E(c.Name)}</b></td><td>{N(c.RawLow)} .. {N(c.RawHigh)} at {N(c.SignalLow)} .. {N(c.SignalHigh)} {c.SignalUnit}</td><td>{c.LimitLow} .. {c.LimitHigh}</td><td>{E(c.FaultCodes)}</td><td>{c.RawType}</td><td class=\"num\">{N(c.InputOhms)} ohm</td><td class=\"num\">{c.Points}</td></tr>\n");
+            html.Append(Invariant, $"<tr><td><b>{E(c.Name)}</b></td><td>{N(c.RawLow)} .. {N(c.RawHigh)} at {N(c.SignalLow)} .. {N(c.SignalHigh)} {c.SignalUnit}</td><td>{c.LimitLow} .. {c.LimitHigh}</td><td>{E(c.FaultCodes)}</td><td>{c.RawType}</td><td class=\"num\">{N(c.InputOhms)} ohm</td><td class=\"num\">{c.Points}</td></tr>\n");
         html.Append("</tbody>\n</table>\n</section>\n");
     }
 
     private void Tile(string number, string label, string? note, bool flagged = false) =>
-        _html.Append($"<div class=\"tile{(flagged ? " flagged" : "")}\"><b>{E(number)}</b><span>{E(label)}</span>{(note is null ? "" : $"<small>{E(note)}</small>")}</div>\n");
+        _html.Append(Invariant, $"<div class=\"tile{(flagged ? " flagged" : "")}\"><b>{E(number)}</b><span>{E(label)}</span>{(note is null ? "" : $"<small>{E(note)}</small>")}</div>\n");
 
     private void Diagnostics()
     {
@@ -132,7 +132,7 @@ public sealed class ReportHtml
         foreach (var d in _data.Diagnostics)
         {
             html.Append("<tr><td><span class=\"badge ").Append(d.Severity).Append("\">").Append(d.Severity)
-                .Append("</span></td><td class=\"where\">").AppendEncoded(d.File).Append('(').Append(d.Line).Append(',').Append(d.Column)
+                .Append("</span></td><td class=\"where\">").AppendEncoded(d.File).Append('(').AppendInvariant(d.Line).Append(',').AppendInvariant(d.Column)
                 .Append(")</td><td>").AppendEncoded(d.Code).Append("</td><td>").AppendEncoded(d.Message).Append("</td></tr>\n");
             Spill();
         }
@@ -145,12 +145,12 @@ public sealed class ReportHtml
         var spread = _data.Priorities;
         var total = spread.ByPriority.Sum(p => p.Alarms);
         html.Append("<section id=\"priorities\">\n<h2>Alarm priority spread</h2>\n");
-        html.Append($"<p>{total} alarm{(total == 1 ? "" : "s")}: ");
-        html.Append(string.Join(", ", spread.ByPriority.Select(p => $"{p.Alarms} at priority {p.Priority}")));
+        html.Append(Invariant, $"<p>{total} alarm{(total == 1 ? "" : "s")}: ");
+        html.Append(string.Join(", ", spread.ByPriority.Select(p => string.Create(Invariant, $"{p.Alarms} at priority {p.Priority}"))));
         html.Append(". The usual spread is about 80 % low, 15 % medium and 5 % high (ISA-18.2, EEMUA 191, from memory); priority 1 counts as high, 2 as medium, 3 and 4 as low.</p>\n");
         html.Append("<table class=\"spread\">\n<thead><tr><th>level</th><th>priorities</th><th class=\"num\">alarms</th><th class=\"num\">share</th><th class=\"num\">usual</th><th class=\"share\">this plant (bar) against usual (mark)</th></tr></thead>\n<tbody>\n");
         foreach (var share in spread.Shares)
-            html.Append($"<tr><td>{share.Level}</td><td>{share.Priorities}</td><td class=\"num\">{share.Alarms}</td><td class=\"num\">{N1(share.Percent)} %</td><td class=\"num\">{N(share.UsualPercent)} %</td><td class=\"share\">{Bar(share.Percent, "bar-" + share.Level, share.UsualPercent)}</td></tr>\n");
+            html.Append(Invariant, $"<tr><td>{share.Level}</td><td>{share.Priorities}</td><td class=\"num\">{share.Alarms}</td><td class=\"num\">{N1(share.Percent)} %</td><td class=\"num\">{N(share.UsualPercent)} %</td><td class=\"share\">{Bar(share.Percent, "bar-" + share.Level, share.UsualPercent)}</td></tr>\n");
         html.Append("</tbody>\n</table>\n</section>\n");
     }
 
@@ -191,13 +191,13 @@ public sealed class ReportHtml
         html.Append("<p>What each two-wire loop needs at its budget current (transmitter minimum voltage plus the drop across every series resistance), against its supply (black mark). A loop passes when the need stays left of the mark.</p>\n");
         html.Append("<p class=\"legend\">");
         foreach (var (part, color) in LoopColors.Where(c => c.Part != "shunt"))
-            html.Append($"<span><i style=\"background:{color}\"></i>{(part == "card input" ? "card input or shunt" : part)}</span>");
+            html.Append(Invariant, $"<span><i style=\"background:{color}\"></i>{(part == "card input" ? "card input or shunt" : part)}</span>");
         html.Append("</p>\n");
         double X(double volts) => volts / chart.ScaleVolts * BudgetWidth;
         html.Append("<table class=\"loops\">\n<thead><tr><th>point</th><th class=\"barcell\">");
-        html.Append($"<svg class=\"axis\" viewBox=\"0 0 {C(BudgetWidth)} 14\" role=\"img\" aria-label=\"volts\">");
+        html.Append(Invariant, $"<svg class=\"axis\" viewBox=\"0 0 {C(BudgetWidth)} 14\" role=\"img\" aria-label=\"volts\">");
         for (var v = 0.0; v <= chart.ScaleVolts + 1e-9; v += 5)
-            html.Append($"<text x=\"{C(Math.Clamp(X(v), 6, BudgetWidth - 10))}\" y=\"11\" text-anchor=\"middle\">{N(v)}{(v + 5 > chart.ScaleVolts ? " V" : "")}</text>");
+            html.Append(Invariant, $"<text x=\"{C(Math.Clamp(X(v), 6, BudgetWidth - 10))}\" y=\"11\" text-anchor=\"middle\">{N(v)}{(v + 5 > chart.ScaleVolts ? " V" : "")}</text>");
         html.Append("</svg></th><th class=\"num\">needs</th><th class=\"num\">supply</th><th class=\"num\">margin</th><th class=\"num\">loop</th><th>HART</th></tr></thead>\n<tbody>\n");
         foreach (var loop in chart.Loops)
         {
@@ -300,7 +300,7 @@ public sealed class ReportHtml
                 html.Append("</td><td>").AppendFixed(a.ResetMa, 2).Append(" mA");
                 Raw(a.ResetRaw);
                 html.Append("</td><td>").Append(N(a.DelaySeconds)).Append(" s / ").Append(N(a.ClearSeconds))
-                    .Append(" s</td><td>").Append(a.Priority).Append("</td><td>").AppendEncoded(a.Text ?? "").Append("</td></tr>\n");
+                    .Append(" s</td><td>").AppendInvariant(a.Priority).Append("</td><td>").AppendEncoded(a.Text ?? "").Append("</td></tr>\n");
             }
             html.Append("</tbody>\n</table>\n");
         }
@@ -309,7 +309,7 @@ public sealed class ReportHtml
 
     private void Raw(long? raw)
     {
-        if (raw is { } r) _html.Append("<small> raw ").Append(r).Append("</small>");
+        if (raw is { } r) _html.Append("<small> raw ").AppendInvariant(r).Append("</small>");
     }
 
     private static string KindClass(string kind) => kind is "HH" or "LL" ? "hi" : "lo";
@@ -414,18 +414,18 @@ public sealed class ReportHtml
     {
         var html = _html;
         html.Append("<svg class=\"curve chart-parts\" aria-hidden=\"true\">\n<defs>\n");
-        html.Append($"<rect id=\"{FrameId}\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(PlotBottom - PlotTop)}\" style=\"{FrameLine}\"/>\n");
+        html.Append(Invariant, $"<rect id=\"{FrameId}\" x=\"{C(PlotLeft)}\" y=\"{C(PlotTop)}\" width=\"{C(PlotRight - PlotLeft)}\" height=\"{C(PlotBottom - PlotTop)}\" style=\"{FrameLine}\"/>\n");
         foreach (var point in _data.Points)
         {
             var (fromMa, toMa) = (point.Curve.FromMa, point.Curve.ToMa);
             if (_currentAxes.ContainsKey((fromMa, toMa))) continue;
             var id = "chart-current-axis-" + (_currentAxes.Count + 1).ToString(CultureInfo.InvariantCulture);
             _currentAxes.Add((fromMa, toMa), id);
-            html.Append($"<g id=\"{id}\" style=\"{ChartText}; text-anchor: middle\">\n");
+            html.Append(Invariant, $"<g id=\"{id}\" style=\"{ChartText}; text-anchor: middle\">\n");
             double X(double ma) => PlotLeft + (ma - fromMa) / (toMa - fromMa) * (PlotRight - PlotLeft);
             for (var ma = Math.Ceiling(fromMa / 4) * 4; ma <= toMa; ma += 4)
-                html.Append($"<path d=\"M{C(X(ma))} {C(PlotTop)}V{C(PlotBottom)}\" style=\"fill: none; {GridLine}\"/><text x=\"{C(X(ma))}\" y=\"{C(PlotBottom + 14)}\">{N(ma)}</text>\n");
-            html.Append($"<text x=\"{C(PlotRight)}\" y=\"{C(PlotBottom + 30)}\" style=\"{AxisTitleText}; text-anchor: end\">loop current, mA</text>\n</g>\n");
+                html.Append(Invariant, $"<path d=\"M{C(X(ma))} {C(PlotTop)}V{C(PlotBottom)}\" style=\"fill: none; {GridLine}\"/><text x=\"{C(X(ma))}\" y=\"{C(PlotBottom + 14)}\">{N(ma)}</text>\n");
+            html.Append(Invariant, $"<text x=\"{C(PlotRight)}\" y=\"{C(PlotBottom + 30)}\" style=\"{AxisTitleText}; text-anchor: end\">loop current, mA</text>\n</g>\n");
         }
         html.Append("</defs>\n</svg>\n");
     }
@@ -480,11 +480,14 @@ public sealed class ReportHtml
     {
         var html = _html;
         html.Append("<section id=\"cautions\" class=\"cautions\">\n<h2>Cautions</h2>\n<ul>\n");
-        foreach (var caution in _data.Cautions) html.Append($"<li>{E(caution)}</li>\n");
+        foreach (var caution in _data.Cautions) html.Append(Invariant, $"<li>{E(caution)}</li>\n");
         html.Append("</ul>\n</section>\n");
     }
 
     // ---- small helpers -------------------------------------------------------------------
+
+    /// <summary>Counts and limits in the page never follow the culture (some write a minus sign other than '-').</summary>
+    private static readonly CultureInfo Invariant = CultureInfo.InvariantCulture;
 
     private static string E(string text) => WebUtility.HtmlEncode(text);
 

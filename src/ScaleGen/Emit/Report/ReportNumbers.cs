@@ -102,6 +102,14 @@ internal static class ReportText
             : text.Append(DisplayNumbers.Fixed(value, decimals));
     }
 
+    /// <summary>Appends a whole number in the invariant culture.</summary>
+    public static StringBuilder AppendInvariant(this StringBuilder text, long value)
+    {
+        Span<char> buffer = stackalloc char[20];
+        value.TryFormat(buffer, out var written, default, CultureInfo.InvariantCulture);
+        return text.Append(buffer[..written]);
+    }
+
     /// <summary>Appends text from the plant HTML-encoded (most of it needs no encoding, and then no copy is made).</summary>
     public static StringBuilder AppendEncoded(this StringBuilder text, string value) => text.Append(WebUtility.HtmlEncode(value));
 }
