@@ -14,14 +14,14 @@ namespace ScaleGen.Emit.Report;
 /// What every chart draws alike (the frame, and the current axis with its grid and labels,
 /// one per span of current) is drawn once, in a hidden SVG before the first point, and
 /// each chart places it with &lt;use&gt;: on a large plant it was a fifth of the page.
-/// </remarks>
-/// <remarks>
+/// <para>
 /// The page is streamed (<see cref="Write"/>): a plant of 50,000 points makes a page of
 /// hundreds of MB, so it is built a point at a time and spilled to the output. The parts
 /// written once per point or loop row are appended piece by piece with their numbers
 /// written straight into the builder (<see cref="ReportNumbers"/>), instead of through
 /// interpolated strings: at that size the temporaries cost several times the writing.
 /// The parts written once per page stay in the plainer interpolated form.
+/// </para>
 /// </remarks>
 public sealed class ReportHtml
 {
