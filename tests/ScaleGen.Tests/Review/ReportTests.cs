@@ -50,6 +50,7 @@ public class ReportTests
     {
         var invariant = ReportJson.Write(Data());
         Assert.Equal(invariant, TestInputs.UnderCulture("de-DE", () => ReportJson.Write(Data())));
+        Assert.Equal(invariant, TestInputs.UnderCulture("sv-SE", () => ReportJson.Write(Data())));
     }
 
     [Fact]
@@ -191,11 +192,27 @@ public class ReportTests
     }
 
     [Fact]
+    public void Shared_chart_parts_are_defined_before_they_are_used()
+    {
+        var html = Html();
+        var uses = System.Text.RegularExpressions.Regex.Matches(html, "<use href=\"#([^\"]+)\"/>");
+        // every chart places the frame and a current axis
+        Assert.Equal(2 * CompileTestPlant().Plant.Points.Length, uses.Count);
+        foreach (System.Text.RegularExpressions.Match use in uses)
+        {
+            var definition = html.IndexOf($" id=\"{use.Groups[1].Value}\"", StringComparison.Ordinal);
+            Assert.True(definition >= 0 && definition < use.Index, $"#{use.Groups[1].Value} is not defined before it is used");
+        }
+    }
+
+    [Fact]
     public void The_page_is_deterministic_and_culture_invariant()
     {
         var html = Html();
         Assert.Equal(html, Html());
         Assert.Equal(html, TestInputs.UnderCulture("de-DE", Html));
+        // a culture whose minus sign is not '-' (U+2212): card limits and raw counts are negative
+        Assert.Equal(html, TestInputs.UnderCulture("sv-SE", Html));
     }
 
     [Theory]

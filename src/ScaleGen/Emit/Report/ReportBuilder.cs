@@ -1,4 +1,5 @@
 using System.Collections.Immutable;
+using System.Globalization;
 using ScaleGen.Engine;
 using ScaleGen.Model;
 
@@ -22,8 +23,15 @@ public static class ReportBuilder
     public static ReportData Build(EmitContext context)
     {
         var plant = context.Plant;
-        var points = plant.Points.Select(BuildPoint).ToImmutableArray();
-        var loops = plant.Points.Select(BuildLoop).OfType<ReportLoop>().ToImmutableArray();
+        // Plain loops: these run once per point of plants with tens of thousands of them.
+        var points = ImmutableArray.CreateBuilder<ReportPoint>(plant.Points.Length);
+        var loopList = ImmutableArray.CreateBuilder<ReportLoop>();
+        foreach (var point in plant.Points)
+        {
+            points.Add(BuildPoint(point));
+            if (BuildLoop(point) is { } loop) loopList.Add(loop);
+        }
+        var loops = loopList.ToImmutable();
         var diagnostics = context.Diagnostics.Select(d => new ReportDiagnostic(
             d.Code, d.IsError ? "error" : "warning", Path.GetFileName(d.Location.Path), d.Location.Line, d.Location.Column, d.Message)).ToImmutableArray();
 
@@ -42,7 +50,7 @@ public static class ReportBuilder
         var cards = plant.Cards
             .Select(c => new ReportCard(c.Name, c.RawType.ToString(), c.RawLow, c.RawHigh, c.ElectricalLow, c.ElectricalHigh,
                 c.IsVoltage ? "V" : "mA", c.LimitLow, c.LimitHigh,
-                c.FaultCodes.IsDefaultOrEmpty ? "none" : string.Join(", ", c.FaultCodes),
+                c.FaultCodes.IsDefaultOrEmpty ? "none" : string.Join(", ", c.FaultCodes.Select(code => code.ToString(CultureInfo.InvariantCulture))),
                 c.InputOhms, plant.Points.Count(p => p.Card.Name == c.Name)))
             .ToImmutableArray();
 
@@ -53,7 +61,7 @@ public static class ReportBuilder
             plant.Sources.Select(s => new ReportSource(GeneratedHeader.FileNameOf(s), GeneratedHeader.Sha256(s.Text))).ToImmutableArray(),
             summary,
             cards,
-            points,
+            points.MoveToImmutable(),
             new LoopChart(LoopScale(loops), loops),
             Spread(plant),
             diagnostics,
@@ -87,9 +95,21 @@ public static class ReportBuilder
         point.TolerancePercent,
         Curve(point),
         Bands(point),
-        AlarmMath.AlarmPoints(point).Select(a => new ReportAlarm(
-            a.Alarm.Kind.ToString(), a.TripValue, a.Alarm.Deadband, a.ResetValue, a.TripMa, a.ResetMa, a.TripRaw, a.ResetRaw,
-            a.Alarm.Priority, a.Alarm.OnDelaySeconds, a.Alarm.OffDelaySeconds, a.Alarm.Message)).ToImmutableArray());
+        Alarms(point));
+
+    private static ImmutableArray<ReportAlarm> Alarms(Point point)
+    {
+        if (point.Alarms.IsEmpty) return ImmutableArray<ReportAlarm>.Empty;
+        var alarms = ImmutableArray.CreateBuilder<ReportAlarm>(point.Alarms.Length);
+        foreach (var alarm in point.Alarms)
+        {
+            var a = AlarmMath.AlarmPointOf(point, alarm);
+            alarms.Add(new ReportAlarm(
+                a.Alarm.Kind.ToString(), a.TripValue, a.Alarm.Deadband, a.ResetValue, a.TripMa, a.ResetMa, a.TripRaw, a.ResetRaw,
+                a.Alarm.Priority, a.Alarm.OnDelaySeconds, a.Alarm.OffDelaySeconds, a.Alarm.Message));
+        }
+        return alarms.MoveToImmutable();
+    }
 
     /// <summary>
     /// The transfer curve from the engine's signal path. A linear point is a straight line
@@ -126,15 +146,29 @@ public static class ReportBuilder
     public static ImmutableArray<CurrentBand> Bands(Point point)
     {
         var (from, to) = CurveSpan(point);
-        var cuts = new List<double> { from, to, point.SignalLowMa, point.SignalHighMa };
-        if (point.Health.FaultLowMa is { } low) cuts.Add(low);
-        if (point.Health.FaultHighMa is { } high) cuts.Add(high);
-        cuts.Add(SignalPath.RawToMa(point, point.Card.LimitLow));
-        cuts.Add(SignalPath.RawToMa(point, point.Card.LimitHigh));
-        var edges = cuts.Where(c => c >= from && c <= to).Distinct().Order().ToList();
+        // At most eight cuts: kept on the stack, sorted, the ones outside the span and the repeats left out.
+        Span<double> cuts = stackalloc double[8];
+        var count = 0;
+        cuts[count++] = from;
+        cuts[count++] = to;
+        cuts[count++] = point.SignalLowMa;
+        cuts[count++] = point.SignalHighMa;
+        if (point.Health.FaultLowMa is { } low) cuts[count++] = low;
+        if (point.Health.FaultHighMa is { } high) cuts[count++] = high;
+        cuts[count++] = SignalPath.RawToMa(point, point.Card.LimitLow);
+        cuts[count++] = SignalPath.RawToMa(point, point.Card.LimitHigh);
+        cuts = cuts[..count];
+        cuts.Sort();
+        Span<double> edges = stackalloc double[8];
+        var edgeCount = 0;
+        foreach (var cut in cuts)
+        {
+            if (cut >= from && cut <= to && (edgeCount == 0 || cut != edges[edgeCount - 1]))
+                edges[edgeCount++] = cut;
+        }
 
-        var bands = new List<CurrentBand>();
-        for (var i = 0; i + 1 < edges.Count; i++)
+        var bands = ImmutableArray.CreateBuilder<CurrentBand>(Math.Max(edgeCount - 1, 0));
+        for (var i = 0; i + 1 < edgeCount; i++)
         {
             var status = StatusAt(point, (edges[i] + edges[i + 1]) / 2).ToString();
             if (bands.Count > 0 && bands[^1].Status == status)
@@ -142,7 +176,7 @@ public static class ReportBuilder
             else
                 bands.Add(new CurrentBand(status, edges[i], edges[i + 1]));
         }
-        return bands.ToImmutableArray();
+        return bands.ToImmutable();
     }
 
     /// <summary>The status for a loop current, with the card's limits (beyond them the card reports a fault).</summary>

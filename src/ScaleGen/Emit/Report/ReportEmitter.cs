@@ -15,6 +15,7 @@ public sealed class ReportEmitter : IOutputEmitter
     {
         var data = ReportBuilder.Build(context);
         var header = GeneratedHeader.Lines(context, $"Review report for {data.Title}");
-        yield return new GeneratedFile(FileName, ReportHtml.Render(data, header));
+        // Streamed: with tens of thousands of points the page is hundreds of MB.
+        yield return new GeneratedFile(FileName, output => ReportHtml.Write(output, data, header));
     }
 }
