@@ -38,13 +38,20 @@ public static class FieldText
     /// <summary>Supply-side voltages and the budget current, with two decimals as a data sheet gives them.</summary>
     public static string SupplyVolts(double volts) => Fixed(volts, 2);
 
-    public static string Percent(double percent) => percent.ToString("0.##", CultureInfo.InvariantCulture);
+    public static string Percent(double percent) =>
+        // -0 keeps .NET's form, whatever that is; DecimalText would drop the sign.
+        !double.IsNegative(percent) && DecimalText.TryScale(percent, 2, out var scaled)
+            ? DecimalText.Format(scaled, 2, trimZeros: true)
+            : percent.ToString("0.##", CultureInfo.InvariantCulture);
 
     /// <summary>Engineering values: up to four decimals, no trailing zeros, never "-0".</summary>
     public static string Value(double value)
     {
         var rounded = Math.Round(value, 4, MidpointRounding.AwayFromZero);
-        return (rounded == 0 ? 0.0 : rounded).ToString("0.####", CultureInfo.InvariantCulture);
+        if (rounded == 0) return "0";
+        return DecimalText.TryScale(rounded, 4, out var scaled)
+            ? DecimalText.Format(scaled, 4, trimZeros: true)
+            : rounded.ToString("0.####", CultureInfo.InvariantCulture);
     }
 
     public static string Raw(long raw) => raw.ToString(CultureInfo.InvariantCulture);
@@ -55,7 +62,10 @@ public static class FieldText
     {
         // Half away from zero, as people round by hand (the default would round to even).
         var rounded = Math.Round(value, decimals, MidpointRounding.AwayFromZero);
-        return (rounded == 0 ? 0.0 : rounded).ToString(FixedFormats[decimals], CultureInfo.InvariantCulture);
+        if (rounded == 0) rounded = 0; // no "-0.000"
+        return DecimalText.TryScale(rounded, decimals, out var scaled)
+            ? DecimalText.Format(scaled, decimals, trimZeros: false)
+            : rounded.ToString(FixedFormats[decimals], CultureInfo.InvariantCulture);
     }
 
     private static readonly string[] FixedFormats = ["F0", "F1", "F2", "F3", "F4"];

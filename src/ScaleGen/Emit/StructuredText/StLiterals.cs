@@ -73,7 +73,9 @@ public static class StLiterals
     public static string Readable(double value, int decimals = 4)
     {
         var rounded = Math.Round(value, decimals);
-        if (rounded == 0) rounded = 0; // no "-0"
+        if (rounded == 0) return "0"; // never "-0"
+        if (decimals <= DecimalText.MaxDecimals && DecimalText.TryScale(rounded, decimals, out var scaled))
+            return DecimalText.Format(scaled, decimals, trimZeros: true);
         return rounded.ToString(decimals < ReadableFormats.Length ? ReadableFormats[decimals] : "0." + new string('#', decimals), CultureInfo.InvariantCulture);
     }
 

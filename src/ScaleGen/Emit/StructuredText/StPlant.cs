@@ -1,3 +1,4 @@
+using System.Collections.Immutable;
 using System.Text;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -33,16 +34,21 @@ public static class StPlant
     }
 
     /// <summary>The program: per point a raw input, a parameter record constant and an instance, each in its own section; the calls as the body.</summary>
+    /// <remarks>
+    /// The sections are made as they are read (<see cref="PointSections"/>), a point at a
+    /// time: 50,000 points' declarations held as records would take most of a gigabyte, and
+    /// keeping them alive costs the garbage collector more than making them.
+    /// </remarks>
     public static StPou Program(Plant plant)
     {
-        var points = ForPlant(plant).Select(n => (Names: n, Parameters: StPointParameters.Of(n.Point, plant.CycleSeconds))).ToList();
+        var names = ForPlant(plant);
         var body = new StringBuilder();
         body.Append(StWriter.Banner).Append('\n');
         body.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
-        foreach (var (names, parameters) in points)
-            body.Append(Call(names, parameters)).Append('\n');
+        foreach (var name in names)
+            body.Append(Call(name, StPointParameters.Of(name.Point, plant.CycleSeconds))).Append('\n');
         return new StPou(StPouKind.Program, StNames.Program,
-            points.SelectMany(p => Sections(p.Names, p.Parameters, plant.CycleSeconds)).ToArray(),
+            new PointSections(names, plant.CycleSeconds),
             body.ToString(),
             [
                 "Plant: " + (plant.Title ?? "(no title)"),
@@ -52,8 +58,36 @@ public static class StPlant
             ]);
     }
 
+    /// <summary>
+    /// The program's sections, <see cref="SectionsPerPoint"/> per point in point order, made
+    /// afresh each time they are read. Reading them from several threads at once is safe:
+    /// nothing is stored.
+    /// </summary>
+    private sealed class PointSections(ImmutableArray<StPointNames> names, double cycle) : IReadOnlyList<StVarSection>
+    {
+        public int Count => names.Length * SectionsPerPoint;
+
+        public StVarSection this[int index] =>
+            (uint)index < (uint)Count
+                ? Of(names[index / SectionsPerPoint])[index % SectionsPerPoint]
+                : throw new ArgumentOutOfRangeException(nameof(index));
+
+        public IEnumerator<StVarSection> GetEnumerator()
+        {
+            foreach (var name in names)
+                foreach (var section in Of(name))
+                    yield return section;
+        }
+
+        System.Collections.IEnumerator System.Collections.IEnumerable.GetEnumerator() => GetEnumerator();
+
+        private StVarSection[] Of(StPointNames name) => Sections(name, StPointParameters.Of(name.Point, cycle), cycle);
+    }
+
+    private const int SectionsPerPoint = 3;
+
     /// <summary>One point's declarations: its raw input, its parameter record constant, its instance.</summary>
-    private static IEnumerable<StVarSection> Sections(StPointNames name, StPointParameters p, double cycle)
+    private static StVarSection[] Sections(StPointNames name, StPointParameters p, double cycle)
     {
         var point = name.Point;
         var members = new List<StMemberValue>();
@@ -132,14 +166,17 @@ public static class StPlant
             notes.Clear();
         }
 
-        yield return new StVarSection(StVarKind.Input,
-            [new StVariable(name.RawInput, new StElementaryType(point.Card.RawType.ToString()), Comment: $"channel {point.Address}, card {point.Card.Name}")])
-        {
-            Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
-        };
-        yield return new StVarSection(StVarKind.Constant,
-            [new StVariable(name.Parameters, new StDerivedType(PointParamsType), new StStructValue(members))]);
-        yield return new StVarSection(StVarKind.Local, [new StVariable(name.Instance, new StDerivedType(PointBlock))]);
+        return
+        [
+            new StVarSection(StVarKind.Input,
+                [new StVariable(name.RawInput, new StElementaryType(point.Card.RawType.ToString()), Comment: $"channel {point.Address}, card {point.Card.Name}")])
+            {
+                Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
+            },
+            new StVarSection(StVarKind.Constant,
+                [new StVariable(name.Parameters, new StDerivedType(PointParamsType), new StStructValue(members))]),
+            new StVarSection(StVarKind.Local, [new StVariable(name.Instance, new StDerivedType(PointBlock))]),
+        ];
     }
 
     /// <summary>The call of one point's instance; the raw input converted to DINT, fault codes inside the limits as CodeFault.</summary>
