@@ -105,12 +105,18 @@ public static class SheetsHtml
             .Append("<tr><th>Signal %</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Expected ").Append(unit)
             .Append("</th><th>± ").Append(unit).Append("</th><th>Found raw</th><th>Found value</th><th>Left value</th></tr>\n");
         foreach (var step in sheet.Steps)
-            html.Append("<tr>")
-                .Append(N(FieldText.Percent(step.Percent))).Append(N(FieldText.Ma(step.Ma))).Append(N(Volts(step.Volts)))
-                .Append(N(FieldText.Raw(step.Raw))).Append(N(FieldText.Value(step.Value))).Append(N(FieldText.Value(step.Tolerance)))
-                .Append(Blank(3)).Append("</tr>\n");
+        {
+            html.Append("<tr>");
+            N(html, FieldText.Percent(step.Percent));
+            N(html, FieldText.Ma(step.Ma));
+            N(html, Volts(step.Volts));
+            N(html, FieldText.Raw(step.Raw));
+            N(html, FieldText.Value(step.Value));
+            N(html, FieldText.Value(step.Tolerance));
+            html.Append(Blank(3)).Append("</tr>\n");
+        }
         html.Append("</table>\n");
-        if (point.SquareRoot) html.Append("<p class=\"note\">").Append(E("Square root: " + SheetsReport.SqrtStepNote + ".")).Append("</p>\n");
+        if (point.SquareRoot) html.Append(SqrtNote);
 
         // Status band tests.
         if (sheet.FaultTests.Length > 0 || sheet.Untestable.Length > 0)
@@ -122,9 +128,14 @@ public static class SheetsHtml
             {
                 html.Append("<tr><td>").Append(status.ToString()).Append("</td>");
                 if (test is not null)
-                    html.Append(N(FieldText.Ma(test.Ma))).Append(N(Volts(test.Volts))).Append(N(FieldText.Raw(test.Raw)))
-                        .Append(test.HoldsLastGood ? $"<td>{E(SheetsReport.ShowsText(test))}</td>" : N(SheetsReport.ShowsText(test)))
-                        .Append(Blank(3));
+                {
+                    N(html, FieldText.Ma(test.Ma));
+                    N(html, Volts(test.Volts));
+                    N(html, FieldText.Raw(test.Raw));
+                    if (test.HoldsLastGood) AppendEncoded(html.Append("<td>"), SheetsReport.ShowsText(test)).Append("</td>");
+                    else N(html, SheetsReport.ShowsText(test));
+                    html.Append(Blank(3));
+                }
                 else
                     html.Append("<td colspan=\"7\">").Append(E("not testable: " + untestable!.Reason)).Append("</td>");
                 html.Append("</tr>\n");
@@ -141,12 +152,19 @@ public static class SheetsHtml
                 .Append(unit).Append("</th><th>Reset mA</th><th>Reset raw</th><th>Trips when mA</th><th>Delay on / off s</th>")
                 .Append("<th>Found trip mA</th><th>Found reset mA</th><th>Left trip mA</th><th>Left reset mA</th></tr>\n");
             foreach (var trip in sheet.Trips)
-                html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>")
-                    .Append(N(FieldText.Value(trip.Setpoint))).Append(N(FieldText.Ma(trip.TripMa))).Append(N(FieldText.Raw(trip.TripRaw)))
-                    .Append(N(FieldText.Value(trip.ResetValue))).Append(N(FieldText.Ma(trip.ResetMa))).Append(N(FieldText.Raw(trip.ResetRaw)))
-                    .Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>")
-                    .Append(N($"{FieldText.Percent(trip.Alarm.OnDelaySeconds)} / {FieldText.Percent(trip.Alarm.OffDelaySeconds)}"))
-                    .Append(Blank(4)).Append("</tr>\n");
+            {
+                html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>");
+                N(html, FieldText.Value(trip.Setpoint));
+                N(html, FieldText.Ma(trip.TripMa));
+                N(html, FieldText.Raw(trip.TripRaw));
+                N(html, FieldText.Value(trip.ResetValue));
+                N(html, FieldText.Ma(trip.ResetMa));
+                N(html, FieldText.Raw(trip.ResetRaw));
+                html.Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>");
+                AppendEncoded(html.Append("<td class=\"n\">"), FieldText.Percent(trip.Alarm.OnDelaySeconds)).Append(" / ");
+                AppendEncoded(html, FieldText.Percent(trip.Alarm.OffDelaySeconds)).Append("</td>");
+                html.Append(Blank(4)).Append("</tr>\n");
+            }
             html.Append("</table>\n");
         }
 
@@ -173,7 +191,21 @@ public static class SheetsHtml
 
     private static string Volts(double? volts) => volts is { } v ? FieldText.Volts(v) : "-";
 
-    private static string N(string text) => $"<td class=\"n\">{E(text)}</td>";
+    private static readonly string SqrtNote = "<p class=\"note\">" + E("Square root: " + SheetsReport.SqrtStepNote + ".") + "</p>\n";
+
+    /// <summary>A number cell.</summary>
+    private static void N(StringBuilder html, string text) => AppendEncoded(html.Append("<td class=\"n\">"), text).Append("</td>");
+
+    /// <summary>
+    /// Appends <see cref="E"/> of the text; plain ASCII without markup characters, as every
+    /// number is, is appended as it is, without a scan and a copy by the encoder.
+    /// </summary>
+    private static StringBuilder AppendEncoded(StringBuilder html, string text)
+    {
+        foreach (var c in text)
+            if (c is < ' ' or > '~' or '<' or '>' or '&' or '"' or '\'') return html.Append(E(text));
+        return html.Append(text);
+    }
 
     private static string Blank(int count) => Blanks[count];
 

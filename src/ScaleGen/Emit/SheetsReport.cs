@@ -1,7 +1,5 @@
 using System.Globalization;
 using System.Text;
-using CsvHelper;
-using CsvHelper.Configuration;
 using Newtonsoft.Json;
 using Newtonsoft.Json.Linq;
 using ScaleGen.Engine;
@@ -108,10 +106,10 @@ public static class SheetsReport
         return document;
     }
 
-    private static void WritePoint(JsonWriter w, PointSheet sheet)
+    private static void WritePoint(JsonText w, PointSheet sheet)
     {
         var point = sheet.Point;
-        w.WriteStartObject();
+        w.StartObject();
         w.Field("point", point.Tag);
         w.Field("description", point.Description);
         w.Field("card", point.Card.Name);
@@ -123,49 +121,49 @@ public static class SheetsReport
         w.NumberField("signal_high_ma", point.SignalHighMa);
         w.Field("sqrt", point.SquareRoot);
         w.NumberField("tolerance_percent", point.TolerancePercent);
-        w.WritePropertyName("steps");
-        w.WriteStartArray();
+        w.Name("steps");
+        w.StartArray();
         foreach (var s in sheet.Steps)
         {
-            w.WriteStartObject();
+            w.StartObject();
             w.NumberField("percent", s.Percent);
             w.NumberField("ma", s.Ma);
             w.NumberField("volts", s.Volts);
             w.Field("raw", s.Raw);
             w.NumberField("value", s.Value);
             w.NumberField("tolerance", s.Tolerance);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("fault_tests");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("fault_tests");
+        w.StartArray();
         foreach (var f in sheet.FaultTests)
         {
-            w.WriteStartObject();
+            w.StartObject();
             w.Field("status", f.Status.ToString());
             w.NumberField("ma", f.Ma);
             w.NumberField("volts", f.Volts);
             w.Field("raw", f.Raw);
             w.NumberField("value", f.Value);
             w.Field("holds_last_good", f.HoldsLastGood);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("untestable");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("untestable");
+        w.StartArray();
         foreach (var u in sheet.Untestable)
         {
-            w.WriteStartObject();
+            w.StartObject();
             w.Field("status", u.Status.ToString());
             w.Field("reason", u.Reason);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("trips");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("trips");
+        w.StartArray();
         foreach (var t in sheet.Trips)
         {
-            w.WriteStartObject();
+            w.StartObject();
             w.Field("alarm", t.Alarm.Kind.ToString());
             w.NumberField("setpoint", t.Setpoint);
             w.NumberField("trip_ma", t.TripMa);
@@ -178,10 +176,10 @@ public static class SheetsReport
             w.Field("current_rises_to_trip", t.CurrentRisesToTrip);
             w.NumberField("on_delay_s", t.Alarm.OnDelaySeconds);
             w.NumberField("off_delay_s", t.Alarm.OffDelaySeconds);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WriteEndObject();
+        w.EndArray();
+        w.EndObject();
     }
 
     // ---- CSV ----------------------------------------------------------------------------
@@ -203,54 +201,74 @@ public static class SheetsReport
     /// <summary>The same CSV, streamed.</summary>
     public static void Csv(TextWriter output, IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines)
     {
-        var configuration = new CsvConfiguration(CultureInfo.InvariantCulture) { NewLine = "\n" };
-        using (var csv = new CsvWriter(output, configuration, leaveOpen: true))
+        var text = new StringBuilder();
+        foreach (var line in commentLines) CsvText.AppendComment(text, " " + line);
+        for (var i = 0; i < CsvHeader.Length; i++)
+            CsvText.AppendField(i == 0 ? text : text.Append(','), CsvHeader[i]);
+        text.Append('\n');
+        foreach (var sheet in sheets)
         {
-            foreach (var line in commentLines)
-            {
-                csv.WriteComment(" " + line);
-                csv.NextRecord();
-            }
-            foreach (var field in CsvHeader) csv.WriteField(field);
-            csv.NextRecord();
-            foreach (var sheet in sheets) WriteCsvPoint(csv, sheet);
+            WriteCsvPoint(text, sheet);
+            TextChunks.Spill(text, output);
         }
+        TextChunks.Spill(text, output, all: true);
     }
 
-    private static void WriteCsvPoint(CsvWriter csv, PointSheet sheet)
+    private static void WriteCsvPoint(StringBuilder text, PointSheet sheet)
     {
         var point = sheet.Point;
+        // The same first three fields and unit on every row of the point.
+        var start = CsvText.Field(point.Tag) + "," + CsvText.Field(point.Description) + "," + CsvText.Field(point.Address) + ",";
+        var unit = CsvText.Field(point.Unit);
         void Row(string test, string percent, string ma, string volts, string raw, string expected, string tolerance, string status, string notes)
         {
-            foreach (var field in new[] { point.Tag, point.Description, point.Address, test, percent, ma, volts, raw, expected, point.Unit, tolerance, status, "", "", notes })
-                csv.WriteField(field);
-            csv.NextRecord();
+            text.Append(start);
+            CsvText.AppendField(text, test).Append(',');
+            CsvText.AppendField(text, percent).Append(',');
+            CsvText.AppendField(text, ma).Append(',');
+            CsvText.AppendField(text, volts).Append(',');
+            CsvText.AppendField(text, raw).Append(',');
+            CsvText.AppendField(text, expected).Append(',');
+            text.Append(unit).Append(',');
+            CsvText.AppendField(text, tolerance).Append(',');
+            CsvText.AppendField(text, status).Append(",,,"); // as_found and as_left stay blank
+            CsvText.AppendField(text, notes).Append('\n');
         }
         static string V(double? volts) => volts is { } v ? FieldText.Volts(v) : "";
 
+        var stepNote = point.SquareRoot ? SqrtStepNote : "";
         foreach (var step in sheet.Steps)
             Row("step", FieldText.Percent(step.Percent), FieldText.Ma(step.Ma), V(step.Volts), FieldText.Raw(step.Raw),
-                FieldText.Value(step.Value), FieldText.Value(step.Tolerance), PointStatus.OK.ToString(),
-                point.SquareRoot ? SqrtStepNote : "");
+                FieldText.Value(step.Value), FieldText.Value(step.Tolerance), OkText, stepNote);
         foreach (var (status, test, untestable) in sheet.Bands)
         {
             if (test is not null)
                 Row("band", "", FieldText.Ma(test.Ma), V(test.Volts), FieldText.Raw(test.Raw),
-                    test.HoldsLastGood ? "" : FieldText.Value(test.Value ?? 0), "", status.ToString(),
+                    test.HoldsLastGood ? "" : FieldText.Value(test.Value ?? 0), "", StatusText(status),
                     test.HoldsLastGood ? "value holds the last good value" : "");
             else
-                Row("band", "", "", "", "", "", "", status.ToString(), "not testable: " + untestable!.Reason);
+                Row("band", "", "", "", "", "", "", StatusText(status), "not testable: " + untestable!.Reason);
         }
         foreach (var trip in sheet.Trips)
         {
-            var kind = trip.Alarm.Kind.ToString();
-            Row($"{kind} trip", "", FieldText.Ma(trip.TripMa), V(trip.TripVolts), FieldText.Raw(trip.TripRaw),
-                FieldText.Value(trip.Setpoint), "", $"{kind} active", TripHowText(trip));
-            Row($"{kind} reset", "", FieldText.Ma(trip.ResetMa), V(trip.ResetVolts), FieldText.Raw(trip.ResetRaw),
-                FieldText.Value(trip.ResetValue), "", $"{kind} clear", "");
+            var kind = trip.Alarm.Kind;
+            Row(AlarmWords[(int)kind].Trip, "", FieldText.Ma(trip.TripMa), V(trip.TripVolts), FieldText.Raw(trip.TripRaw),
+                FieldText.Value(trip.Setpoint), "", AlarmWords[(int)kind].Active, TripHowText(trip));
+            Row(AlarmWords[(int)kind].Reset, "", FieldText.Ma(trip.ResetMa), V(trip.ResetVolts), FieldText.Raw(trip.ResetRaw),
+                FieldText.Value(trip.ResetValue), "", AlarmWords[(int)kind].Clear, "");
         }
         Row("sign-off", "", "", "", "", "", "", "", SignOffText);
     }
+
+    private static readonly string OkText = PointStatus.OK.ToString();
+
+    private static string StatusText(PointStatus status) => StatusNames[(int)status];
+
+    // Enum names made once: Enum.ToString costs a lookup and a string per call.
+    private static readonly string[] StatusNames = Enum.GetValues<PointStatus>().Select(s => s.ToString()).ToArray();
+
+    private static readonly (string Trip, string Reset, string Active, string Clear)[] AlarmWords =
+        Enum.GetValues<AlarmKind>().Select(k => ($"{k} trip", $"{k} reset", $"{k} active", $"{k} clear")).ToArray();
 
     // ---- text ---------------------------------------------------------------------------
 
