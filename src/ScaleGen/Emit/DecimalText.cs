@@ -47,46 +47,50 @@ public static class DecimalText
     /// <summary><c>scaled / 10^decimals</c> as text: an integer part of at least "0", a '.' and the decimals (trailing zeros dropped with <paramref name="trimZeros"/>, and the '.' with them).</summary>
     public static string Format(long scaled, int decimals, bool trimZeros)
     {
-        Span<char> text = stackalloc char[MaxLength];
-        return new string(text[..Write(text, scaled, decimals, trimZeros)]);
+        Span<char> buffer = stackalloc char[MaxLength];
+        return new string(Write(buffer, scaled, decimals, trimZeros));
     }
 
     /// <summary>The same text, appended without a temporary string.</summary>
     public static void Append(System.Text.StringBuilder builder, long scaled, int decimals, bool trimZeros)
     {
-        Span<char> text = stackalloc char[MaxLength];
-        builder.Append(text[..Write(text, scaled, decimals, trimZeros)]);
+        Span<char> buffer = stackalloc char[MaxLength];
+        builder.Append(Write(buffer, scaled, decimals, trimZeros));
     }
 
     // A sign, 20 digits of a long, a point and the zeros before the first digit of a small k.
     private const int MaxLength = 1 + 20 + 1 + MaxDecimals;
 
-    private static int Write(Span<char> text, long scaled, int decimals, bool trimZeros)
+    /// <summary>Writes the text at the end of <paramref name="buffer"/>, from the last digit back, and returns it.</summary>
+    private static ReadOnlySpan<char> Write(Span<char> buffer, long scaled, int decimals, bool trimZeros)
     {
-        // The digits from the last one, at least one more than the decimals (so there is a "0." for a small k).
-        Span<char> reversed = stackalloc char[MaxLength];
         var magnitude = scaled < 0 ? (ulong)-scaled : (ulong)scaled;
-        var count = 0;
+        var shown = decimals;
+        if (trimZeros)
+        {
+            while (shown > 0 && magnitude % 10 == 0)
+            {
+                magnitude /= 10;
+                shown--;
+            }
+        }
+        var position = buffer.Length;
+        if (shown > 0)
+        {
+            for (var i = 0; i < shown; i++)
+            {
+                buffer[--position] = (char)('0' + (int)(magnitude % 10));
+                magnitude /= 10;
+            }
+            buffer[--position] = '.';
+        }
         do
         {
-            reversed[count++] = (char)('0' + (int)(magnitude % 10));
+            buffer[--position] = (char)('0' + (int)(magnitude % 10));
             magnitude /= 10;
         }
         while (magnitude != 0);
-        while (count <= decimals) reversed[count++] = '0';
-
-        var firstKept = 0;
-        if (trimZeros)
-            while (firstKept < decimals && reversed[firstKept] == '0') firstKept++;
-
-        var length = 0;
-        if (scaled < 0) text[length++] = '-';
-        for (var i = count - 1; i >= decimals; i--) text[length++] = reversed[i];
-        if (firstKept < decimals)
-        {
-            text[length++] = '.';
-            for (var i = decimals - 1; i >= firstKept; i--) text[length++] = reversed[i];
-        }
-        return length;
+        if (scaled < 0) buffer[--position] = '-';
+        return buffer[position..];
     }
 }

@@ -22,6 +22,7 @@ public static class StLiterals
         if (float.IsPositiveInfinity(single)) single = float.MaxValue;
         if (float.IsNegativeInfinity(single)) single = float.MinValue;
         if (single == 0f) return "0.0"; // also -0
+        if (ShortSingle(single) is { } shortText) return shortText;
         var text = single.ToString("R", CultureInfo.InvariantCulture);
         var e = text.IndexOfAny(['E', 'e']);
         var mantissa = e < 0 ? text : text[..e];
@@ -30,6 +31,41 @@ public static class StLiterals
         var exponent = int.Parse(text[(e + 1)..], NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture);
         return mantissa + "E" + exponent.ToString(CultureInfo.InvariantCulture);
     }
+
+    /// <summary>
+    /// The REAL literal of a float that is a decimal of at most six significant digits, as
+    /// most setpoints and ranges are, without .NET's general formatting (about a third of a
+    /// microsecond, and a plant has a dozen REALs per point); null for any other float.
+    /// </summary>
+    /// <remarks>
+    /// Any two decimals of at most six digits (FLT_DIG) round to different floats, so one that
+    /// rounds to <paramref name="single"/> is its shortest round-trip text. From 10^-4 up to
+    /// 10^6 .NET writes that without an exponent. The decimal is found by rounding the float
+    /// to six digits and checked by dividing back in double precision; a double that landed
+    /// exactly halfway between two floats could round the wrong way, so that case is left to
+    /// .NET.
+    /// </remarks>
+    private static string? ShortSingle(float single)
+    {
+        var magnitude = Math.Abs((double)single);
+        if (!(magnitude >= 1e-4 && magnitude < 1e6)) return null;
+        // Six digits in all: as many decimals as the integer part leaves (up to 9 below 10^-3).
+        var decimals = 9;
+        while (decimals > 0 && magnitude >= SixDigitBounds[9 - decimals]) decimals--;
+        var power = Powers[decimals];
+        var scaled = Math.Round(single * power);
+        if (Math.Abs(scaled) >= 1e6) return null;
+        var back = scaled / power;
+        if ((float)back != single) return null;
+        if (back == ((double)single + MathF.BitIncrement(single)) / 2 || back == ((double)single + MathF.BitDecrement(single)) / 2) return null;
+        var text = DecimalText.Format((long)scaled, decimals, trimZeros: true);
+        return text.Contains('.') ? text : text + ".0";
+    }
+
+    private static readonly double[] Powers = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
+
+    // From these on, one decimal fewer keeps six digits.
+    private static readonly double[] SixDigitBounds = [1e-3, 1e-2, 1e-1, 1, 1e1, 1e2, 1e3, 1e4, 1e5];
 
     /// <summary>A DINT (or INT/UINT) literal.</summary>
     public static string Integer(long value) => value.ToString(CultureInfo.InvariantCulture);

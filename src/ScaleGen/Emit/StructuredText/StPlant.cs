@@ -45,8 +45,14 @@ public static class StPlant
         var body = new StringBuilder();
         body.Append(StWriter.Banner).Append('\n');
         body.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
+        // A call needs only the card's fault codes: worked out once per card, not per point.
+        var faultCodes = new Dictionary<Card, ImmutableArray<long>>(ReferenceEqualityComparer.Instance);
         foreach (var name in names)
-            body.Append(Call(name, StPointParameters.Of(name.Point, plant.CycleSeconds))).Append('\n');
+        {
+            var card = name.Point.Card;
+            if (!faultCodes.TryGetValue(card, out var codes)) faultCodes.Add(card, codes = StPointParameters.FaultCodesInside(card));
+            body.Append(Call(name, codes)).Append('\n');
+        }
         return new StPou(StPouKind.Program, StNames.Program,
             new PointSections(names, plant.CycleSeconds),
             body.ToString(),
@@ -86,11 +92,14 @@ public static class StPlant
 
     private const int SectionsPerPoint = 3;
 
+    /// <summary>The members of a point's parameter record (its list is made this large at once).</summary>
+    private const int MembersPerPoint = 28;
+
     /// <summary>One point's declarations: its raw input, its parameter record constant, its instance.</summary>
     private static StVarSection[] Sections(StPointNames name, StPointParameters p, double cycle)
     {
         var point = name.Point;
-        var members = new List<StMemberValue>();
+        var members = new List<StMemberValue>(MembersPerPoint);
         var notes = new List<string>();
         void Note(string note) => notes.Add(note);
         void Field(string member, string literal, string? after = null)
@@ -98,10 +107,10 @@ public static class StPlant
             members.Add(new StMemberValue(member, new StSimpleValue(literal), notes.ToArray(), after));
             notes.Clear();
         }
-        void RangeFields(string prefix, StRawRange range)
+        void RangeFields(string minMember, string maxMember, StRawRange range)
         {
-            Field(prefix + "Min", Integer(range.Min));
-            Field(prefix + "Max", Integer(range.Max));
+            Field(minMember, Integer(range.Min));
+            Field(maxMember, Integer(range.Max));
         }
 
         Field("Tag", StSanitizer.StringLiteral(point.Tag, TagLength));
@@ -113,13 +122,13 @@ public static class StPlant
         if (!p.FaultCodesInsideLimits.IsEmpty)
             Note("fault codes inside the limits come in as CodeFault: " + string.Join(", ", p.FaultCodesInsideLimits.Select(Integer)));
         if (point.Health.FaultLowMa is { } faultLow) Note($"FAULT_LOW: I <= {Readable(faultLow)} mA");
-        RangeFields("FaultLow", p.FaultLow);
+        RangeFields("FaultLowMin", "FaultLowMax", p.FaultLow);
         if (point.Health.FaultHighMa is { } faultHigh) Note($"FAULT_HIGH: I >= {Readable(faultHigh)} mA");
-        RangeFields("FaultHigh", p.FaultHigh);
+        RangeFields("FaultHighMin", "FaultHighMax", p.FaultHigh);
         Note($"UNDER: I < {Readable(point.SignalLowMa)} mA");
-        RangeFields("Under", p.Under);
+        RangeFields("UnderMin", "UnderMax", p.Under);
         Note($"OVER: I > {Readable(point.SignalHighMa)} mA");
-        RangeFields("Over", p.Over);
+        RangeFields("OverMin", "OverMax", p.Over);
 
         Note(point.SquareRoot
             ? "fraction = raw * Gain + Offset; Value = SQRT(fraction) * Span + Lrv, or Lrv in the cutoff range"
@@ -127,7 +136,7 @@ public static class StPlant
         Field("SquareRoot", Bool(point.SquareRoot));
         Field("Gain", Real(p.Coefficients.Gain));
         Field("Offset", Real(p.Coefficients.Offset));
-        RangeFields("CutoffRaw", p.Cutoff);
+        RangeFields("CutoffRawMin", "CutoffRawMax", p.Cutoff);
         Field("Lrv", Real(point.Lrv));
         Field("Span", Real(point.Span));
 
@@ -180,7 +189,9 @@ public static class StPlant
     }
 
     /// <summary>The call of one point's instance; the raw input converted to DINT, fault codes inside the limits as CodeFault.</summary>
-    public static string Call(StPointNames name, StPointParameters p)
+    public static string Call(StPointNames name, StPointParameters p) => Call(name, p.FaultCodesInsideLimits);
+
+    private static string Call(StPointNames name, ImmutableArray<long> faultCodesInsideLimits)
     {
         var raw = name.Point.Card.RawType switch
         {
@@ -188,9 +199,9 @@ public static class StPlant
             RawType.UINT => $"UINT_TO_DINT({name.RawInput})",
             _ => name.RawInput,
         };
-        var codeFault = p.FaultCodesInsideLimits.IsEmpty
+        var codeFault = faultCodesInsideLimits.IsEmpty
             ? ""
-            : $", {CodeFaultInput} := " + string.Join(" OR ", p.FaultCodesInsideLimits.Select(c => $"({name.RawInput} = {Integer(c)})"));
+            : $", {CodeFaultInput} := " + string.Join(" OR ", faultCodesInsideLimits.Select(c => $"({name.RawInput} = {Integer(c)})"));
         return $"{name.Instance}({RawInput} := {raw}{codeFault}, {ParamsInput} := {name.Parameters});";
     }
 

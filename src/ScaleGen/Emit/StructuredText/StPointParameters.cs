@@ -65,6 +65,16 @@ public sealed record StPointParameters(
 
     public StAlarmParameters AlarmOf(AlarmKind kind) => Alarms.First(a => a.Kind == kind);
 
+    /// <summary>
+    /// The card's fault codes that lie inside its limits, in order, each once: the generated
+    /// code tests these one by one (codes outside the limits are card faults through the
+    /// limits already).
+    /// </summary>
+    public static ImmutableArray<long> FaultCodesInside(Card card) =>
+        card.FaultCodes.IsDefaultOrEmpty
+            ? ImmutableArray<long>.Empty
+            : card.FaultCodes.Where(c => c >= card.LimitLow && c <= card.LimitHigh).Distinct().Order().ToImmutableArray();
+
     public static StPointParameters Of(Point point, double cycleSeconds)
     {
         var bands = StatusBands.RawThresholds(point);
@@ -86,8 +96,7 @@ public sealed record StPointParameters(
             point,
             low,
             high,
-            // Codes outside the limits are card faults through the limits already.
-            bands.FaultCodes.Where(c => c >= low && c <= high).Distinct().Order().ToImmutableArray(),
+            FaultCodesInside(point.Card),
             Range(bands.FaultLow),
             Range(bands.FaultHigh),
             Range(bands.Under),

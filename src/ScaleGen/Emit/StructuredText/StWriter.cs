@@ -61,21 +61,29 @@ public static class StWriter
     {
         var text = new StringBuilder(LeadingComment(pou.Comment, layout));
         text.Append(pou.Keyword).Append(' ').Append(pou.Name).Append('\n');
+        // Indexed loops over the lists: an enumerator through the interface is an allocation,
+        // and plant.st walks a few hundred lists per point.
         foreach (var section in pou.Sections)
         {
             if (section.Notes.Count > 0)
             {
                 text.Append('\n');
                 if (layout.GroupBanner) text.Append(Banner).Append('\n');
-                foreach (var note in section.Notes) StFile.AppendComment(text, note).Append('\n');
+                for (var i = 0; i < section.Notes.Count; i++) StFile.AppendComment(text, section.Notes[i]).Append('\n');
             }
             text.Append(section.Keyword).Append('\n');
-            foreach (var variable in section.Variables) AppendVariable(text, variable, layout);
+            for (var i = 0; i < section.Variables.Count; i++) AppendVariable(text, section.Variables[i], layout);
             text.Append("END_VAR\n");
             TextChunks.Spill(text, output);
         }
-        text.Append('\n').Append(pou.Body).Append('\n').Append("END_").Append(pou.Keyword).Append('\n');
+        text.Append('\n');
         TextChunks.Spill(text, output, all: true);
+        // A program's body has a line per point: written as it is, not copied into the builder.
+        output.Write(pou.Body);
+        output.Write('\n');
+        output.Write("END_");
+        output.Write(pou.Keyword);
+        output.Write('\n');
     }
 
     /// <summary>An initial value; a structure value with members opens at <paramref name="depth"/> and closes there.</summary>
@@ -115,7 +123,7 @@ public static class StWriter
         for (var i = 0; i < structure.Members.Count; i++)
         {
             var member = structure.Members[i];
-            foreach (var note in member.Notes) StFile.AppendComment(text.Append(' ', inner), note).Append('\n');
+            for (var n = 0; n < member.Notes.Count; n++) StFile.AppendComment(text.Append(' ', inner), member.Notes[n]).Append('\n');
             text.Append(' ', inner).Append(member.Member).Append(" := ");
             AppendValue(text, member.Value, depth + 1);
             if (member.Note is { } after) StFile.AppendComment(text.Append(' '), after);
@@ -126,7 +134,7 @@ public static class StWriter
 
     private static void AppendVariable(StringBuilder text, StVariable variable, StLayout layout)
     {
-        foreach (var note in variable.Notes) StFile.AppendComment(text.Append(Indent), note).Append('\n');
+        for (var i = 0; i < variable.Notes.Count; i++) StFile.AppendComment(text.Append(Indent), variable.Notes[i]).Append('\n');
         var lineStart = text.Length;
         text.Append(Indent).Append(variable.Name).Append(" : ").Append(variable.Type.Text);
         if (variable.Initial is { } initial) AppendValue(text.Append(" := "), initial, 1);
