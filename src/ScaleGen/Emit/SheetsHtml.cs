@@ -107,12 +107,12 @@ public static class SheetsHtml
         foreach (var step in sheet.Steps)
         {
             html.Append("<tr>");
-            N(html, FieldText.Percent(step.Percent));
-            N(html, FieldText.Ma(step.Ma));
-            N(html, Volts(step.Volts));
-            N(html, FieldText.Raw(step.Raw));
-            N(html, FieldText.Value(step.Value));
-            N(html, FieldText.Value(step.Tolerance));
+            FieldText.AppendPercent(Cell(html), step.Percent).Append(EndCell);
+            FieldText.AppendMa(Cell(html), step.Ma).Append(EndCell);
+            AppendVolts(Cell(html), step.Volts).Append(EndCell);
+            FieldText.AppendRaw(Cell(html), step.Raw).Append(EndCell);
+            FieldText.AppendValue(Cell(html), step.Value).Append(EndCell);
+            FieldText.AppendValue(Cell(html), step.Tolerance).Append(EndCell);
             html.Append(Blank(3)).Append("</tr>\n");
         }
         html.Append("</table>\n");
@@ -129,9 +129,9 @@ public static class SheetsHtml
                 html.Append("<tr><td>").Append(status.ToString()).Append("</td>");
                 if (test is not null)
                 {
-                    N(html, FieldText.Ma(test.Ma));
-                    N(html, Volts(test.Volts));
-                    N(html, FieldText.Raw(test.Raw));
+                    FieldText.AppendMa(Cell(html), test.Ma).Append(EndCell);
+                    AppendVolts(Cell(html), test.Volts).Append(EndCell);
+                    FieldText.AppendRaw(Cell(html), test.Raw).Append(EndCell);
                     if (test.HoldsLastGood) AppendEncoded(html.Append("<td>"), SheetsReport.ShowsText(test)).Append("</td>");
                     else N(html, SheetsReport.ShowsText(test));
                     html.Append(Blank(3));
@@ -154,15 +154,15 @@ public static class SheetsHtml
             foreach (var trip in sheet.Trips)
             {
                 html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>");
-                N(html, FieldText.Value(trip.Setpoint));
-                N(html, FieldText.Ma(trip.TripMa));
-                N(html, FieldText.Raw(trip.TripRaw));
-                N(html, FieldText.Value(trip.ResetValue));
-                N(html, FieldText.Ma(trip.ResetMa));
-                N(html, FieldText.Raw(trip.ResetRaw));
+                FieldText.AppendValue(Cell(html), trip.Setpoint).Append(EndCell);
+                FieldText.AppendMa(Cell(html), trip.TripMa).Append(EndCell);
+                FieldText.AppendRaw(Cell(html), trip.TripRaw).Append(EndCell);
+                FieldText.AppendValue(Cell(html), trip.ResetValue).Append(EndCell);
+                FieldText.AppendMa(Cell(html), trip.ResetMa).Append(EndCell);
+                FieldText.AppendRaw(Cell(html), trip.ResetRaw).Append(EndCell);
                 html.Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>");
-                AppendEncoded(html.Append("<td class=\"n\">"), FieldText.Percent(trip.Alarm.OnDelaySeconds)).Append(" / ");
-                AppendEncoded(html, FieldText.Percent(trip.Alarm.OffDelaySeconds)).Append("</td>");
+                FieldText.AppendPercent(Cell(html), trip.Alarm.OnDelaySeconds).Append(" / ");
+                FieldText.AppendPercent(html, trip.Alarm.OffDelaySeconds).Append(EndCell);
                 html.Append(Blank(4)).Append("</tr>\n");
             }
             html.Append("</table>\n");
@@ -189,12 +189,18 @@ public static class SheetsHtml
     private static string Cols(params int[] percents) =>
         "<colgroup>" + string.Concat(percents.Select(p => $"<col style=\"width:{p.ToString(System.Globalization.CultureInfo.InvariantCulture)}%\">")) + "</colgroup>\n";
 
-    private static string Volts(double? volts) => volts is { } v ? FieldText.Volts(v) : "-";
+    private static StringBuilder AppendVolts(StringBuilder html, double? volts) =>
+        volts is { } v ? FieldText.AppendVolts(html, v) : html.Append('-');
 
     private static readonly string SqrtNote = "<p class=\"note\">" + E("Square root: " + SheetsReport.SqrtStepNote + ".") + "</p>\n";
 
-    /// <summary>A number cell.</summary>
-    private static void N(StringBuilder html, string text) => AppendEncoded(html.Append("<td class=\"n\">"), text).Append("</td>");
+    // A number cell; numbers (digits, '.', '-') need no encoding and go in as FieldText appends them.
+    private static StringBuilder Cell(StringBuilder html) => html.Append("<td class=\"n\">");
+
+    private const string EndCell = "</td>";
+
+    /// <summary>A number cell of other text.</summary>
+    private static void N(StringBuilder html, string text) => AppendEncoded(Cell(html), text).Append(EndCell);
 
     /// <summary>
     /// Appends <see cref="E"/> of the text; plain ASCII without markup characters, as every

@@ -216,49 +216,69 @@ public static class SheetsReport
 
     private static void WriteCsvPoint(StringBuilder text, PointSheet sheet)
     {
+        // Appended field by field rather than as a row of strings: a check sheet of 50,000
+        // points has ten million fields. Free text goes through CsvText's quoting; numbers
+        // (digits, '.', '-') and the fixed words never need quotes and go in as they are.
         var point = sheet.Point;
-        // The same first three fields and unit on every row of the point.
         var start = CsvText.Field(point.Tag) + "," + CsvText.Field(point.Description) + "," + CsvText.Field(point.Address) + ",";
         var unit = CsvText.Field(point.Unit);
-        void Row(string test, string percent, string ma, string volts, string raw, string expected, string tolerance, string status, string notes)
-        {
-            text.Append(start);
-            CsvText.AppendField(text, test).Append(',');
-            CsvText.AppendField(text, percent).Append(',');
-            CsvText.AppendField(text, ma).Append(',');
-            CsvText.AppendField(text, volts).Append(',');
-            CsvText.AppendField(text, raw).Append(',');
-            CsvText.AppendField(text, expected).Append(',');
-            text.Append(unit).Append(',');
-            CsvText.AppendField(text, tolerance).Append(',');
-            CsvText.AppendField(text, status).Append(",,,"); // as_found and as_left stay blank
-            CsvText.AppendField(text, notes).Append('\n');
-        }
-        static string V(double? volts) => volts is { } v ? FieldText.Volts(v) : "";
 
+        // point, description, address, test, percent, ma, volts, raw, expected_value, unit,
+        // tolerance, expected_status, as_found, as_left, notes
         var stepNote = point.SquareRoot ? SqrtStepNote : "";
         foreach (var step in sheet.Steps)
-            Row("step", FieldText.Percent(step.Percent), FieldText.Ma(step.Ma), V(step.Volts), FieldText.Raw(step.Raw),
-                FieldText.Value(step.Value), FieldText.Value(step.Tolerance), OkText, stepNote);
+        {
+            text.Append(start).Append("step,");
+            FieldText.AppendPercent(text, step.Percent).Append(',');
+            FieldText.AppendMa(text, step.Ma).Append(',');
+            AppendCsvVolts(text, step.Volts).Append(',');
+            FieldText.AppendRaw(text, step.Raw).Append(',');
+            FieldText.AppendValue(text, step.Value).Append(',').Append(unit).Append(',');
+            FieldText.AppendValue(text, step.Tolerance).Append(',').Append(OkText).Append(",,,");
+            CsvText.AppendField(text, stepNote).Append('\n');
+        }
         foreach (var (status, test, untestable) in sheet.Bands)
         {
+            text.Append(start).Append("band,,");
             if (test is not null)
-                Row("band", "", FieldText.Ma(test.Ma), V(test.Volts), FieldText.Raw(test.Raw),
-                    test.HoldsLastGood ? "" : FieldText.Value(test.Value ?? 0), "", StatusText(status),
-                    test.HoldsLastGood ? "value holds the last good value" : "");
+            {
+                FieldText.AppendMa(text, test.Ma).Append(',');
+                AppendCsvVolts(text, test.Volts).Append(',');
+                FieldText.AppendRaw(text, test.Raw).Append(',');
+                if (!test.HoldsLastGood) FieldText.AppendValue(text, test.Value ?? 0);
+                text.Append(',').Append(unit).Append(",,").Append(StatusText(status)).Append(",,,");
+                CsvText.AppendField(text, test.HoldsLastGood ? "value holds the last good value" : "");
+            }
             else
-                Row("band", "", "", "", "", "", "", StatusText(status), "not testable: " + untestable!.Reason);
+            {
+                text.Append(",,,,").Append(unit).Append(",,").Append(StatusText(status)).Append(",,,");
+                CsvText.AppendField(text, "not testable: " + untestable!.Reason);
+            }
+            text.Append('\n');
         }
         foreach (var trip in sheet.Trips)
         {
-            var kind = trip.Alarm.Kind;
-            Row(AlarmWords[(int)kind].Trip, "", FieldText.Ma(trip.TripMa), V(trip.TripVolts), FieldText.Raw(trip.TripRaw),
-                FieldText.Value(trip.Setpoint), "", AlarmWords[(int)kind].Active, TripHowText(trip));
-            Row(AlarmWords[(int)kind].Reset, "", FieldText.Ma(trip.ResetMa), V(trip.ResetVolts), FieldText.Raw(trip.ResetRaw),
-                FieldText.Value(trip.ResetValue), "", AlarmWords[(int)kind].Clear, "");
+            var words = AlarmWords[(int)trip.Alarm.Kind];
+            text.Append(start).Append(words.Trip).Append(",,");
+            FieldText.AppendMa(text, trip.TripMa).Append(',');
+            AppendCsvVolts(text, trip.TripVolts).Append(',');
+            FieldText.AppendRaw(text, trip.TripRaw).Append(',');
+            FieldText.AppendValue(text, trip.Setpoint).Append(',').Append(unit).Append(",,").Append(words.Active).Append(",,,");
+            CsvText.AppendField(text, TripHowText(trip)).Append('\n');
+
+            text.Append(start).Append(words.Reset).Append(",,");
+            FieldText.AppendMa(text, trip.ResetMa).Append(',');
+            AppendCsvVolts(text, trip.ResetVolts).Append(',');
+            FieldText.AppendRaw(text, trip.ResetRaw).Append(',');
+            FieldText.AppendValue(text, trip.ResetValue).Append(',').Append(unit).Append(",,").Append(words.Clear).Append(",,,\n");
         }
-        Row("sign-off", "", "", "", "", "", "", "", SignOffText);
+        text.Append(start).Append("sign-off,,,,,,").Append(unit).Append(",,,,,");
+        CsvText.AppendField(text, SignOffText).Append('\n');
     }
+
+    /// <summary>Volts, or nothing where the card declares no input resistance.</summary>
+    private static StringBuilder AppendCsvVolts(StringBuilder text, double? volts) =>
+        volts is { } v ? FieldText.AppendVolts(text, v) : text;
 
     private static readonly string OkText = PointStatus.OK.ToString();
 
