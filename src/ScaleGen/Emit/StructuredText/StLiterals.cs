@@ -84,7 +84,8 @@ public static class StLiterals
         [
             (86_400_000_000L, "d"), (3_600_000_000L, "h"), (60_000_000L, "m"), (1_000_000L, "s"), (1_000L, "ms"), (1L, "us"),
         ];
-        var parts = new long[units.Length];
+        // Written into a buffer on the stack: a plant writes eight of these per point.
+        Span<long> parts = stackalloc long[units.Length];
         var rest = microseconds;
         int first = -1, last = -1;
         for (var i = 0; i < units.Length; i++)
@@ -95,10 +96,18 @@ public static class StLiterals
             if (first < 0) first = i;
             last = i;
         }
-        var text = new StringBuilder("T#");
+        Span<char> text = stackalloc char[80];
+        text[0] = 'T';
+        text[1] = '#';
+        var length = 2;
         for (var i = first; i <= last; i++)
-            text.Append(parts[i].ToString(CultureInfo.InvariantCulture)).Append(units[i].Unit);
-        return text.ToString();
+        {
+            parts[i].TryFormat(text[length..], out var digits, default, CultureInfo.InvariantCulture);
+            length += digits;
+            units[i].Unit.AsSpan().CopyTo(text[length..]);
+            length += units[i].Unit.Length;
+        }
+        return new string(text[..length]);
     }
 
     /// <summary>A duration of whole cycles as a TIME literal, to the microsecond.</summary>

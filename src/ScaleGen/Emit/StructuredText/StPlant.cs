@@ -92,6 +92,27 @@ public static class StPlant
 
     private const int SectionsPerPoint = 3;
 
+    // What every point's declarations share, made once: the records are immutable, and a
+    // large plant would otherwise make the same objects tens of thousands of times.
+    private static readonly StDerivedType PointParamsTypeRef = new(PointParamsType);
+    private static readonly StDerivedType PointBlockTypeRef = new(PointBlock);
+    private static readonly StElementaryType[] RawInputTypes =
+        Enum.GetValues<RawType>().Select(type => new StElementaryType(type.ToString())).ToArray();
+    private static readonly StMemberValue[] DisabledAlarms = Enum.GetValues<AlarmKind>()
+        .Select(kind => new StMemberValue(AlarmParamsField(kind), new StStructValue([new StMemberValue("Enabled", new StSimpleValue(Bool(false)))])))
+        .ToArray();
+    private static readonly StSimpleValue TrueValue = new(Bool(true)), FalseValue = new(Bool(false)), NoDelay = new(Time(0)), RealZero = new(Real(0));
+
+    /// <summary>A literal as a value; the ones most points share are one object each.</summary>
+    private static StSimpleValue SimpleValue(string literal) => literal switch
+    {
+        "TRUE" => TrueValue,
+        "FALSE" => FalseValue,
+        "T#0s" => NoDelay,
+        "0.0" => RealZero,
+        _ => new StSimpleValue(literal),
+    };
+
     /// <summary>The members of a point's parameter record (its list is made this large at once).</summary>
     private const int MembersPerPoint = 28;
 
@@ -104,7 +125,7 @@ public static class StPlant
         void Note(string note) => notes.Add(note);
         void Field(string member, string literal, string? after = null)
         {
-            members.Add(new StMemberValue(member, new StSimpleValue(literal), notes.ToArray(), after));
+            members.Add(new StMemberValue(member, SimpleValue(literal), notes.ToArray(), after));
             notes.Clear();
         }
         void RangeFields(string minMember, string maxMember, StRawRange range)
@@ -153,10 +174,10 @@ public static class StPlant
             var field = AlarmParamsField(alarm.Kind);
             if (alarm.Alarm is not { } trip)
             {
-                members.Add(new StMemberValue(field, new StStructValue([new StMemberValue("Enabled", new StSimpleValue(Bool(false)))])));
+                members.Add(DisabledAlarms[(int)alarm.Kind]);
                 continue;
             }
-            StMemberValue Simple(string member, string literal, string? after = null) => new(member, new StSimpleValue(literal), [], after);
+            StMemberValue Simple(string member, string literal, string? after = null) => new(member, SimpleValue(literal), [], after);
             StStructValue limit = new(
             [
                 Simple("Enabled", Bool(true)),
@@ -178,13 +199,13 @@ public static class StPlant
         return
         [
             new StVarSection(StVarKind.Input,
-                [new StVariable(name.RawInput, new StElementaryType(point.Card.RawType.ToString()), Comment: $"channel {point.Address}, card {point.Card.Name}")])
+                [new StVariable(name.RawInput, RawInputTypes[(int)point.Card.RawType], Comment: $"channel {point.Address}, card {point.Card.Name}")])
             {
                 Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
             },
             new StVarSection(StVarKind.Constant,
-                [new StVariable(name.Parameters, new StDerivedType(PointParamsType), new StStructValue(members))]),
-            new StVarSection(StVarKind.Local, [new StVariable(name.Instance, new StDerivedType(PointBlock))]),
+                [new StVariable(name.Parameters, PointParamsTypeRef, new StStructValue(members))]),
+            new StVarSection(StVarKind.Local, [new StVariable(name.Instance, PointBlockTypeRef)]),
         ];
     }
 

@@ -75,23 +75,36 @@ public sealed record StPointParameters(
             ? ImmutableArray<long>.Empty
             : card.FaultCodes.Where(c => c >= card.LimitLow && c <= card.LimitHigh).Distinct().Order().ToImmutableArray();
 
+    // A kind the point has no alarm of: the same entry for every point.
+    private static readonly StAlarmParameters[] Disabled = Enum.GetValues<AlarmKind>()
+        .Select(kind => new StAlarmParameters(kind, null, StRawRange.Empty, StRawRange.Empty, 0, 0)).ToArray();
+
     public static StPointParameters Of(Point point, double cycleSeconds)
     {
         var bands = StatusBands.RawThresholds(point);
         var (low, high) = (bands.LimitLow, bands.LimitHigh);
         StRawRange Range(RawCondition condition) => StRawRange.Of(condition, low, high);
 
+        // Plain loops rather than LINQ: this runs once per point for plant.st and plant.xml.
         var points = AlarmMath.AlarmPoints(point);
-        var alarms = StNames.AlarmKinds.Select(kind =>
+        var alarms = ImmutableArray.CreateBuilder<StAlarmParameters>(StNames.AlarmKinds.Length);
+        foreach (var kind in StNames.AlarmKinds)
         {
-            var alarmPoint = points.FirstOrDefault(a => a.Alarm.Kind == kind);
-            if (alarmPoint is null) return new StAlarmParameters(kind, null, StRawRange.Empty, StRawRange.Empty, 0, 0);
-            var timing = new AlarmStateMachine(alarmPoint.Alarm, cycleSeconds);
-            return new StAlarmParameters(kind, alarmPoint, Range(alarmPoint.TripCondition), Range(alarmPoint.ClearCondition),
-                timing.OnDelayScans, timing.OffDelayScans);
-        }).ToImmutableArray();
+            AlarmPoint? alarmPoint = null;
+            foreach (var candidate in points)
+            {
+                if (candidate.Alarm.Kind != kind) continue;
+                alarmPoint = candidate;
+                break;
+            }
+            alarms.Add(alarmPoint is null
+                ? Disabled[(int)kind]
+                : new StAlarmParameters(kind, alarmPoint, Range(alarmPoint.TripCondition), Range(alarmPoint.ClearCondition),
+                    // The delays in cycles as the engine's alarm state machine counts them.
+                    ScanTiming.DelayScans(alarmPoint.Alarm.OnDelaySeconds, cycleSeconds),
+                    ScanTiming.DelayScans(alarmPoint.Alarm.OffDelaySeconds, cycleSeconds)));
+        }
 
-        var filter = new LagFilter(point.FilterSeconds, cycleSeconds);
         return new StPointParameters(
             point,
             low,
@@ -107,7 +120,7 @@ public sealed record StPointParameters(
             // Hold shows this too until there is a good value.
             FaultValue: FaultActions.Substitute(point, lastGood: null),
             FilterOn: point.FilterSeconds > 0,
-            Alpha: filter.Alpha,
-            alarms);
+            Alpha: LagFilter.AlphaFor(point.FilterSeconds, cycleSeconds),
+            alarms.MoveToImmutable());
     }
 }
