@@ -1,3 +1,4 @@
+using System.Buffers;
 using System.Globalization;
 using System.Text;
 using Newtonsoft.Json;
@@ -203,6 +204,10 @@ public sealed class JsonText(StringBuilder text)
         text.Append(JsonOutput.DoubleText(value));
     }
 
+    /// <summary>Printable ASCII but the quote and the backslash: written as it is.</summary>
+    private static readonly SearchValues<char> Plain =
+        SearchValues.Create(string.Concat(Enumerable.Range(' ', '~' - ' ' + 1).Select(c => (char)c).Where(c => c is not ('"' or '\\'))));
+
     private void AppendString(string? value)
     {
         if (value is null)
@@ -210,15 +215,12 @@ public sealed class JsonText(StringBuilder text)
             text.Append("null");
             return;
         }
-        foreach (var c in value)
+        // Anything Newtonsoft might escape (control characters, quote, backslash and, to be
+        // safe with its few non-ASCII escapes, everything beyond ASCII) goes to Newtonsoft.
+        if (value.AsSpan().ContainsAnyExcept(Plain))
         {
-            // Anything Newtonsoft might escape: control characters, quote, backslash, and (to be
-            // safe with its few non-ASCII escapes) everything beyond ASCII.
-            if (c is < ' ' or '"' or '\\' or > '~')
-            {
-                text.Append(JsonConvert.ToString(value));
-                return;
-            }
+            text.Append(JsonConvert.ToString(value));
+            return;
         }
         text.Append('"').Append(value).Append('"');
     }

@@ -93,11 +93,17 @@ public static class SheetsHtml
         html.Append("<section class=\"point\">\n<h2>").Append(E(point.Tag));
         if (point.Description.Length > 0) html.Append("<span class=\"desc\">").Append(E(point.Description)).Append("</span>");
         html.Append("</h2>\n");
-        html.Append("<p class=\"meta\">")
-            .Append(E($"Card {point.Card.Name} at {point.Address} · signal {SheetsReport.SignalText(point)} · range {SheetsReport.RangeText(point)} · {SheetsReport.ExtractionText(point)}"))
-            .Append("<br>")
-            .Append(E($"{SheetsReport.HealthText(point)} · on fault {SheetsReport.OnFaultText(point)} · tolerance {SheetsReport.ToleranceText(sheet)} · volts {SheetsReport.VoltsWhere(point)}"))
-            .Append("</p>\n");
+        // Encoded piece by piece (the same as encoding the whole line: every piece meets plain
+        // ASCII at its ends), without the line as a string and its encoded copy.
+        AppendEncoded(html.Append("<p class=\"meta\">Card "), point.Card.Name).Append(" at ");
+        AppendEncoded(html, point.Address).Append(Dot).Append("signal ");
+        AppendEncoded(html, SheetsReport.SignalText(point)).Append(Dot).Append("range ");
+        AppendEncoded(html, SheetsReport.RangeText(point)).Append(Dot);
+        AppendEncoded(html, SheetsReport.ExtractionText(point)).Append("<br>");
+        AppendEncoded(html, SheetsReport.HealthText(point)).Append(Dot).Append("on fault ");
+        AppendEncoded(html, SheetsReport.OnFaultText(point)).Append(Dot).Append("tolerance ");
+        AppendEncoded(html, SheetsReport.ToleranceText(sheet)).Append(Dot).Append("volts ");
+        AppendEncoded(html, SheetsReport.VoltsWhere(point)).Append("</p>\n");
 
         // Five-point test.
         html.Append("<table class=\"steps\">\n<caption>Five-point test</caption>\n")
@@ -126,7 +132,7 @@ public static class SheetsHtml
                 .Append("<tr><th>Must show</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Value shown ").Append(unit).Append("</th><th>Found status</th><th>Found value</th><th>Left status</th></tr>\n");
             foreach (var (status, test, untestable) in sheet.Bands)
             {
-                html.Append("<tr><td>").Append(status.ToString()).Append("</td>");
+                html.Append("<tr><td>").Append(SheetsReport.StatusText(status)).Append("</td>");
                 if (test is not null)
                 {
                     FieldText.AppendMa(Cell(html), test.Ma).Append(EndCell);
@@ -153,7 +159,7 @@ public static class SheetsHtml
                 .Append("<th>Found trip mA</th><th>Found reset mA</th><th>Left trip mA</th><th>Left reset mA</th></tr>\n");
             foreach (var trip in sheet.Trips)
             {
-                html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>");
+                html.Append("<tr><td>").Append(SheetsReport.AlarmText(trip.Alarm.Kind)).Append("</td>");
                 FieldText.AppendValue(Cell(html), trip.Setpoint).Append(EndCell);
                 FieldText.AppendMa(Cell(html), trip.TripMa).Append(EndCell);
                 FieldText.AppendRaw(Cell(html), trip.TripRaw).Append(EndCell);
@@ -198,6 +204,9 @@ public static class SheetsHtml
     private static StringBuilder Cell(StringBuilder html) => html.Append("<td class=\"n\">");
 
     private const string EndCell = "</td>";
+
+    /// <summary>The separator of the meta lines, " · ", encoded.</summary>
+    private static readonly string Dot = E(" · ");
 
     /// <summary>A number cell of other text.</summary>
     private static void N(StringBuilder html, string text) => AppendEncoded(Cell(html), text).Append(EndCell);

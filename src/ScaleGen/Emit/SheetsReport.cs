@@ -140,7 +140,7 @@ public static class SheetsReport
         foreach (var f in sheet.FaultTests)
         {
             w.StartObject();
-            w.Field("status", f.Status.ToString());
+            w.Field("status", StatusText(f.Status));
             w.NumberField("ma", f.Ma);
             w.NumberField("volts", f.Volts);
             w.Field("raw", f.Raw);
@@ -154,7 +154,7 @@ public static class SheetsReport
         foreach (var u in sheet.Untestable)
         {
             w.StartObject();
-            w.Field("status", u.Status.ToString());
+            w.Field("status", StatusText(u.Status));
             w.Field("reason", u.Reason);
             w.EndObject();
         }
@@ -164,7 +164,7 @@ public static class SheetsReport
         foreach (var t in sheet.Trips)
         {
             w.StartObject();
-            w.Field("alarm", t.Alarm.Kind.ToString());
+            w.Field("alarm", AlarmText(t.Alarm.Kind));
             w.NumberField("setpoint", t.Setpoint);
             w.NumberField("trip_ma", t.TripMa);
             w.NumberField("reset_ma", t.ResetMa);
@@ -282,13 +282,19 @@ public static class SheetsReport
 
     private static readonly string OkText = PointStatus.OK.ToString();
 
-    private static string StatusText(PointStatus status) => StatusNames[(int)status];
+    // Enum names made once: Enum.ToString costs a lookup and a string per call, and every
+    // format writes several per point.
 
-    // Enum names made once: Enum.ToString costs a lookup and a string per call.
+    /// <summary>A status by its name (OK, UNDER, ...).</summary>
+    public static string StatusText(PointStatus status) => StatusNames[(int)status];
+
+    /// <summary>An alarm kind by its name (HH, H, L, LL).</summary>
+    public static string AlarmText(AlarmKind kind) => AlarmWords[(int)kind].Name;
+
     private static readonly string[] StatusNames = Enum.GetValues<PointStatus>().Select(s => s.ToString()).ToArray();
 
-    private static readonly (string Trip, string Reset, string Active, string Clear)[] AlarmWords =
-        Enum.GetValues<AlarmKind>().Select(k => ($"{k} trip", $"{k} reset", $"{k} active", $"{k} clear")).ToArray();
+    private static readonly (string Name, string Trip, string Reset, string Active, string Clear)[] AlarmWords =
+        Enum.GetValues<AlarmKind>().Select(k => (k.ToString(), $"{k} trip", $"{k} reset", $"{k} active", $"{k} clear")).ToArray();
 
     // ---- text ---------------------------------------------------------------------------
 
