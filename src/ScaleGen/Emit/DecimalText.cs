@@ -58,6 +58,15 @@ public static class DecimalText
         builder.Append(Write(buffer, scaled, decimals, trimZeros));
     }
 
+    /// <summary>The same text into <paramref name="destination"/>; false when it does not fit.</summary>
+    public static bool TryWrite(Span<char> destination, long scaled, int decimals, bool trimZeros, out int written)
+    {
+        Span<char> buffer = stackalloc char[MaxLength];
+        var text = Write(buffer, scaled, decimals, trimZeros);
+        written = text.TryCopyTo(destination) ? text.Length : 0;
+        return written > 0;
+    }
+
     // A sign, 20 digits of a long, a point and the zeros before the first digit of a small k.
     private const int MaxLength = 1 + 20 + 1 + MaxDecimals;
 

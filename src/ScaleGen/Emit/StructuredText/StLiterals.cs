@@ -115,14 +115,49 @@ public static class StLiterals
         Time((long)Math.Round(scans * cycleSeconds * 1e6, MidpointRounding.AwayFromZero));
 
     /// <summary>A number for a comment: up to <paramref name="decimals"/> decimals, no trailing zeros, invariant.</summary>
-    public static string Readable(double value, int decimals = 4)
+    public static string Readable(double value, int decimals = 4) => NoteNumber(value, decimals).ToString();
+
+    /// <summary>
+    /// <see cref="Readable"/>'s text as a value an interpolated string formats in place
+    /// (plant.st's comments hold some twenty numbers per point): no string of its own.
+    /// </summary>
+    public static ReadableNumber NoteNumber(double value, int decimals = 4) => new(value, decimals);
+
+    /// <summary>A number as <see cref="Readable"/> writes it, formatted where it is interpolated; always invariant.</summary>
+    public readonly struct ReadableNumber(double value, int decimals) : ISpanFormattable
     {
-        var rounded = Math.Round(value, decimals);
-        if (rounded == 0) return "0"; // never "-0"
-        if (decimals <= DecimalText.MaxDecimals && DecimalText.TryScale(rounded, decimals, out var scaled))
-            return DecimalText.Format(scaled, decimals, trimZeros: true);
-        return rounded.ToString(decimals < ReadableFormats.Length ? ReadableFormats[decimals] : "0." + new string('#', decimals), CultureInfo.InvariantCulture);
+        public override string ToString()
+        {
+            Span<char> text = stackalloc char[64];
+            return TryFormat(text, out var length, default, null) ? new string(text[..length]) : Slow();
+        }
+
+        public string ToString(string? format, IFormatProvider? formatProvider) => ToString();
+
+        /// <remarks>The provider is ignored: comments are invariant whatever the interpolation asks for.</remarks>
+        public bool TryFormat(Span<char> destination, out int charsWritten, ReadOnlySpan<char> format, IFormatProvider? provider)
+        {
+            var rounded = Math.Round(value, decimals);
+            if (rounded == 0) // never "-0"
+            {
+                charsWritten = destination.IsEmpty ? 0 : 1;
+                if (charsWritten == 1) destination[0] = '0';
+                return charsWritten == 1;
+            }
+            if (decimals <= DecimalText.MaxDecimals && DecimalText.TryScale(rounded, decimals, out var scaled))
+                return DecimalText.TryWrite(destination, scaled, decimals, trimZeros: true, out charsWritten);
+            return rounded.TryFormat(destination, out charsWritten, Format(decimals), CultureInfo.InvariantCulture);
+        }
+
+        private string Slow()
+        {
+            var rounded = Math.Round(value, decimals);
+            return rounded.ToString(Format(decimals), CultureInfo.InvariantCulture);
+        }
     }
+
+    private static string Format(int decimals) =>
+        decimals < ReadableFormats.Length ? ReadableFormats[decimals] : "0." + new string('#', decimals);
 
     /// <summary>"0.", "0.#", "0.##", ...: made once, as a plant of many points uses them over and over.</summary>
     private static readonly string[] ReadableFormats = Enumerable.Range(0, 10).Select(d => "0." + new string('#', d)).ToArray();

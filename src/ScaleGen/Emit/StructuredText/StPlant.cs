@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Collections.Immutable;
 using System.Text;
 using ScaleGen.Engine;
@@ -142,13 +143,13 @@ public static class StPlant
         Field("LimitHigh", Integer(p.LimitHigh));
         if (!p.FaultCodesInsideLimits.IsEmpty)
             Note("fault codes inside the limits come in as CodeFault: " + string.Join(", ", p.FaultCodesInsideLimits.Select(Integer)));
-        if (point.Health.FaultLowMa is { } faultLow) Note($"FAULT_LOW: I <= {Readable(faultLow)} mA");
+        if (point.Health.FaultLowMa is { } faultLow) Note(string.Create(Invariant, $"FAULT_LOW: I <= {NoteNumber(faultLow)} mA"));
         RangeFields("FaultLowMin", "FaultLowMax", p.FaultLow);
-        if (point.Health.FaultHighMa is { } faultHigh) Note($"FAULT_HIGH: I >= {Readable(faultHigh)} mA");
+        if (point.Health.FaultHighMa is { } faultHigh) Note(string.Create(Invariant, $"FAULT_HIGH: I >= {NoteNumber(faultHigh)} mA"));
         RangeFields("FaultHighMin", "FaultHighMax", p.FaultHigh);
-        Note($"UNDER: I < {Readable(point.SignalLowMa)} mA");
+        Note(string.Create(Invariant, $"UNDER: I < {NoteNumber(point.SignalLowMa)} mA"));
         RangeFields("UnderMin", "UnderMax", p.Under);
-        Note($"OVER: I > {Readable(point.SignalHighMa)} mA");
+        Note(string.Create(Invariant, $"OVER: I > {NoteNumber(point.SignalHighMa)} mA"));
         RangeFields("OverMin", "OverMax", p.Over);
 
         Note(point.SquareRoot
@@ -165,7 +166,7 @@ public static class StPlant
         Field("HoldLastGood", Bool(p.HoldLastGood));
         Field("FaultValue", Real(p.FaultValue));
 
-        Note(p.FilterOn ? $"filter {Readable(point.FilterSeconds)} s at a {CycleText(cycle)} cycle" : "no filter: alarms judged on raw ranges");
+        Note(p.FilterOn ? string.Create(Invariant, $"filter {NoteNumber(point.FilterSeconds)} s at a {CycleText(cycle)} cycle") : "no filter: alarms judged on raw ranges");
         Field("FilterOn", Bool(p.FilterOn));
         Field("Alpha", Real(p.Alpha));
 
@@ -226,43 +227,66 @@ public static class StPlant
         return $"{name.Instance}({RawInput} := {raw}{codeFault}, {ParamsInput} := {name.Parameters});";
     }
 
+    // The comments below are interpolated with NoteNumber (formatted in place, invariant)
+    // straight into their one string: plant.st has a dozen of them per point.
+
+    /// <summary>
+    /// A cleared builder for a comment made of several parts, one per thread (plant.st and
+    /// plant.xml may be written at the same time); the comment is copied out before the next.
+    /// </summary>
+    private static StringBuilder NoteBuilder() => (t_note ??= new StringBuilder(256)).Clear();
+
+    [ThreadStatic]
+    private static StringBuilder? t_note;
+
+    private static readonly CultureInfo Invariant = CultureInfo.InvariantCulture;
+
     private static string Summary(Point point)
     {
-        var parts = new List<string>
+        var text = NoteBuilder();
+        text.Append(Invariant, $"signal {NoteNumber(point.SignalLowMa)} .. {NoteNumber(point.SignalHighMa)} mA");
+        if (point.ShuntOhms is { } shunt && point.Card.IsVoltage) text.Append(Invariant, $" through a {NoteNumber(shunt)} ohm shunt");
+        text.Append(Invariant, $"; range {NoteNumber(point.Lrv, 6)} .. {NoteNumber(point.Urv, 6)} {point.Unit}");
+        if (point.IsReverse) text.Append(" (reverse acting)");
+        if (point.SquareRoot) text.Append(Invariant, $"; square root, cutoff {NoteNumber(point.CutoffPercent)} %");
+        else text.Append("; linear");
+        switch (point.Health.Kind)
         {
-            $"signal {Readable(point.SignalLowMa)} .. {Readable(point.SignalHighMa)} mA" +
-                (point.ShuntOhms is { } shunt && point.Card.IsVoltage ? $" through a {Readable(shunt)} ohm shunt" : ""),
-            $"range {Readable(point.Lrv, 6)} .. {Readable(point.Urv, 6)} {point.Unit}" + (point.IsReverse ? " (reverse acting)" : ""),
-            point.SquareRoot ? $"square root, cutoff {Readable(point.CutoffPercent)} %" : "linear",
-            point.Health.Kind switch
-            {
-                HealthKind.Ne43 => "health ne43",
-                HealthKind.Custom => "health" + (point.Health.FaultLowMa is { } l ? $" below {Readable(l)} mA" : "") +
-                    (point.Health.FaultHighMa is { } h ? $" above {Readable(h)} mA" : ""),
-                _ => "health none",
-            },
-        };
-        return string.Join("; ", parts);
+            case HealthKind.Ne43:
+                text.Append("; health ne43");
+                break;
+            case HealthKind.Custom:
+                text.Append("; health");
+                if (point.Health.FaultLowMa is { } low) text.Append(Invariant, $" below {NoteNumber(low)} mA");
+                if (point.Health.FaultHighMa is { } high) text.Append(Invariant, $" above {NoteNumber(high)} mA");
+                break;
+            default:
+                text.Append("; health none");
+                break;
+        }
+        return text.ToString();
     }
 
     private static string FaultActionText(Point point) => point.OnFault.Kind switch
     {
-        FaultActionKind.Low => $"low ({Readable(point.ValueMin, 6)} {point.Unit})",
-        FaultActionKind.High => $"high ({Readable(point.ValueMax, 6)} {point.Unit})",
-        FaultActionKind.Value => $"value {Readable(point.OnFault.Value, 6)} {point.Unit}",
-        _ => $"hold (last good value; {Readable(point.Lrv, 6)} {point.Unit} until there is one)",
+        FaultActionKind.Low => string.Create(Invariant, $"low ({NoteNumber(point.ValueMin, 6)} {point.Unit})"),
+        FaultActionKind.High => string.Create(Invariant, $"high ({NoteNumber(point.ValueMax, 6)} {point.Unit})"),
+        FaultActionKind.Value => string.Create(Invariant, $"value {NoteNumber(point.OnFault.Value, 6)} {point.Unit}"),
+        _ => string.Create(Invariant, $"hold (last good value; {NoteNumber(point.Lrv, 6)} {point.Unit} until there is one)"),
     };
 
     private static string AlarmSummary(Point point, AlarmPoint trip)
     {
         var alarm = trip.Alarm;
         var unit = point.Unit;
-        var tripRaw = trip.TripRaw is { } t ? $", raw {Integer(t)}" : "";
-        var resetRaw = trip.ResetRaw is { } r ? $", raw {Integer(r)}" : "";
-        var beyond = alarm.IsHigh ? "below" : "above";
-        return $"{alarm.Kind} {Readable(alarm.Setpoint, 6)} {unit}, deadband {Readable(alarm.Deadband, 6)} {unit}: " +
-            $"on at {Readable(trip.TripMa)} mA{tripRaw}; off {beyond} {Readable(trip.ResetValue, 6)} {unit} " +
-            $"({Readable(trip.ResetMa)} mA{resetRaw}); delay {Readable(alarm.OnDelaySeconds)} s, clear {Readable(alarm.OffDelaySeconds)} s; priority {alarm.Priority}";
+        var text = NoteBuilder();
+        text.Append(Invariant, $"{AlarmParamsField(alarm.Kind)} {NoteNumber(alarm.Setpoint, 6)} {unit}, deadband {NoteNumber(alarm.Deadband, 6)} {unit}: ");
+        text.Append(Invariant, $"on at {NoteNumber(trip.TripMa)} mA");
+        if (trip.TripRaw is { } tripRaw) text.Append(Invariant, $", raw {tripRaw}");
+        text.Append(Invariant, $"; off {(alarm.IsHigh ? "below" : "above")} {NoteNumber(trip.ResetValue, 6)} {unit} ({NoteNumber(trip.ResetMa)} mA");
+        if (trip.ResetRaw is { } resetRaw) text.Append(Invariant, $", raw {resetRaw}");
+        text.Append(Invariant, $"); delay {NoteNumber(alarm.OnDelaySeconds)} s, clear {NoteNumber(alarm.OffDelaySeconds)} s; priority {alarm.Priority}");
+        return text.ToString();
     }
 
     /// <summary>A note after a TIME literal when the declared delay is not a whole number of cycles; else null.</summary>
@@ -272,9 +296,11 @@ public static class StPlant
         var declared = Math.Max(declaredSeconds, 0);
         return Math.Abs(written - declared) <= 1e-9 * Math.Max(1.0, declared)
             ? null
-            : $"declared {Readable(declared, 6)} s, rounded up to {scans} whole cycles";
+            : string.Create(Invariant, $"declared {NoteNumber(declared, 6)} s, rounded up to {scans} whole cycles");
     }
 
     private static string CycleText(double cycleSeconds) =>
-        cycleSeconds < 1 ? $"{Readable(cycleSeconds * 1000, 3)} ms" : $"{Readable(cycleSeconds, 6)} s";
+        cycleSeconds < 1
+            ? string.Create(Invariant, $"{NoteNumber(cycleSeconds * 1000, 3)} ms")
+            : string.Create(Invariant, $"{NoteNumber(cycleSeconds, 6)} s");
 }
