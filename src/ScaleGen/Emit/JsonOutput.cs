@@ -98,22 +98,27 @@ public static class JsonOutput
     }
 
     /// <summary>A double as Newtonsoft writes one: shortest round-trip form, with ".0" on a whole number.</summary>
-    internal static string DoubleText(double value) => ShortDecimal(value) ?? JsonConvert.ToString(value);
+    /// <summary>Appends a double as Newtonsoft writes one: shortest round-trip form, with ".0" on a whole number.</summary>
+    internal static void AppendDouble(StringBuilder text, double value)
+    {
+        if (TryShortDecimal(value, out var scaled, out var decimals)) DecimalText.Append(text, scaled, decimals, trimZeros: true);
+        else text.Append(JsonConvert.ToString(value));
+    }
 
     /// <summary>
-    /// The shortest round-trip text of a value that is a whole number of 10^-10 (or of
-    /// 10^-4, for larger values), as <see cref="DecimalText"/> writes it, which is much
-    /// faster than .NET's general formatting; null for whole numbers (Newtonsoft writes
-    /// "2.0"), values below 10^-4 (.NET writes an exponent) and anything else.
+    /// A value that is a whole number of 10^-10 (or of 10^-4, for larger values) and not a
+    /// whole number, as digits for <see cref="DecimalText"/>, whose text is then its shortest
+    /// round-trip form, much faster than .NET's general formatting; false for whole numbers
+    /// (Newtonsoft writes "2.0"), values below 10^-4 (.NET writes an exponent) and anything else.
     /// </summary>
-    private static string? ShortDecimal(double value)
+    private static bool TryShortDecimal(double value, out long scaled, out int decimals)
     {
-        if (!(Math.Abs(value) >= 1e-4)) return null;
-        if (DecimalText.TryScale(value, 10, out var scaled))
-            return scaled % 10_000_000_000 == 0 ? null : DecimalText.Format(scaled, 10, trimZeros: true);
-        if (DecimalText.TryScale(value, 4, out scaled))
-            return scaled % 10_000 == 0 ? null : DecimalText.Format(scaled, 4, trimZeros: true);
-        return null;
+        scaled = 0;
+        decimals = 10;
+        if (!(Math.Abs(value) >= 1e-4)) return false;
+        if (DecimalText.TryScale(value, 10, out scaled)) return scaled % 10_000_000_000 != 0;
+        decimals = 4;
+        return DecimalText.TryScale(value, 4, out scaled) && scaled % 10_000 != 0;
     }
 
     private static JsonTextWriter Writer(TextWriter text) =>
@@ -129,7 +134,7 @@ public static class JsonOutput
     {
         public override void WriteValue(double value)
         {
-            if (ShortDecimal(value) is { } decimalText) WriteRawValue(decimalText);
+            if (TryShortDecimal(value, out var scaled, out var decimals)) WriteRawValue(DecimalText.Format(scaled, decimals, trimZeros: true));
             else base.WriteValue(value);
         }
     }

@@ -195,13 +195,16 @@ public sealed class JsonText(StringBuilder text)
         NewLine(_depth);
     }
 
-    private void NewLine(int depth) => text.Append('\n').Append(' ', depth * 2);
+    private void NewLine(int depth) => text.Append(depth < NewLines.Length ? NewLines[depth] : "\n" + new string(' ', depth * 2));
+
+    /// <summary>A line break and the indent of each depth, made once.</summary>
+    private static readonly string[] NewLines = Enumerable.Range(0, 16).Select(depth => "\n" + new string(' ', depth * 2)).ToArray();
 
     /// <summary>A double as Newtonsoft writes one (shortest round-trip form, "2.0" for a whole number).</summary>
     private void Double(double value)
     {
         BeforeValue();
-        text.Append(JsonOutput.DoubleText(value));
+        JsonOutput.AppendDouble(text, value);
     }
 
     /// <summary>Printable ASCII but the quote and the backslash: written as it is.</summary>
