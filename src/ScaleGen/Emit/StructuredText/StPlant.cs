@@ -1,5 +1,5 @@
-using System.Globalization;
 using System.Collections.Immutable;
+using System.Globalization;
 using System.Text;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -67,8 +67,9 @@ public static class StPlant
 
     /// <summary>
     /// The program's sections, <see cref="SectionsPerPoint"/> per point in point order, made
-    /// afresh each time they are read. Reading them from several threads at once is safe:
-    /// nothing is stored.
+    /// afresh each time they are read (new records each time: compare them by value). Reading
+    /// them from several threads at once is safe: nothing is stored. Enumerate them: an index
+    /// makes all of its point's sections to return one.
     /// </summary>
     private sealed class PointSections(ImmutableArray<StPointNames> names, double cycle) : IReadOnlyList<StVarSection>
     {
@@ -114,8 +115,8 @@ public static class StPlant
         _ => new StSimpleValue(literal),
     };
 
-    /// <summary>The members of a point's parameter record (its list is made this large at once).</summary>
-    private const int MembersPerPoint = 28;
+    /// <summary>The members of a point's parameter record, alarms included (its list is made this large at once).</summary>
+    private const int MembersPerPoint = 27;
 
     /// <summary>One point's declarations: its raw input, its parameter record constant, its instance.</summary>
     private static StVarSection[] Sections(StPointNames name, StPointParameters p, double cycle)

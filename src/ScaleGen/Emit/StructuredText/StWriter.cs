@@ -61,8 +61,9 @@ public static class StWriter
     {
         var text = new StringBuilder(LeadingComment(pou.Comment, layout));
         text.Append(pou.Keyword).Append(' ').Append(pou.Name).Append('\n');
-        // Indexed loops over the lists: an enumerator through the interface is an allocation,
-        // and plant.st walks a few hundred lists per point.
+        // The sections are enumerated (plant.st's are made as they are read); the small lists
+        // inside them are walked by index: an enumerator through the interface is an
+        // allocation, and plant.st walks a few hundred lists per point.
         foreach (var section in pou.Sections)
         {
             if (section.Notes.Count > 0)
