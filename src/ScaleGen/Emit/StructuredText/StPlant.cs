@@ -46,14 +46,9 @@ public static class StPlant
         var body = new StringBuilder();
         body.Append(StWriter.Banner).Append('\n');
         body.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
-        // A call needs only the card's fault codes: worked out once per card, not per point.
-        var faultCodes = new Dictionary<Card, ImmutableArray<long>>(ReferenceEqualityComparer.Instance);
+        // A call needs only the card's fault codes, not all of the point's parameters.
         foreach (var name in names)
-        {
-            var card = name.Point.Card;
-            if (!faultCodes.TryGetValue(card, out var codes)) faultCodes.Add(card, codes = StPointParameters.FaultCodesInside(card));
-            body.Append(Call(name, codes)).Append('\n');
-        }
+            body.Append(Call(name, StPointParameters.FaultCodesInside(name.Point.Card))).Append('\n');
         return new StPou(StPouKind.Program, StNames.Program,
             new PointSections(names, plant.CycleSeconds),
             body.ToString(),

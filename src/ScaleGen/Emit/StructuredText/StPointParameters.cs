@@ -1,4 +1,6 @@
 using System.Collections.Immutable;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using ScaleGen.Engine;
 using ScaleGen.Model;
 
@@ -70,10 +72,14 @@ public sealed record StPointParameters(
     /// code tests these one by one (codes outside the limits are card faults through the
     /// limits already).
     /// </summary>
+    /// <remarks>Worked out once per card: points share their card, and a plant has tens of thousands of points.</remarks>
     public static ImmutableArray<long> FaultCodesInside(Card card) =>
         card.FaultCodes.IsDefaultOrEmpty
             ? ImmutableArray<long>.Empty
-            : card.FaultCodes.Where(c => c >= card.LimitLow && c <= card.LimitHigh).Distinct().Order().ToImmutableArray();
+            : ImmutableCollectionsMarshal.AsImmutableArray(CodesInside.GetValue(card,
+                c => c.FaultCodes.Where(code => code >= c.LimitLow && code <= c.LimitHigh).Distinct().Order().ToArray()));
+
+    private static readonly ConditionalWeakTable<Card, long[]> CodesInside = new();
 
     // A kind the point has no alarm of: the same entry for every point.
     private static readonly StAlarmParameters[] Disabled = Enum.GetValues<AlarmKind>()
