@@ -93,7 +93,16 @@ public static class GeneratedHeader
     /// <summary>Only the file name goes into outputs, so they do not depend on where the checkout is.</summary>
     public static string FileNameOf(SourceText source) => Path.GetFileName(source.Path);
 
-    public static string Sha256(string text) =>
+    /// <remarks>
+    /// Worked out once per text object: every generated file's header names each source's
+    /// hash, and the sources of a large site are tens of MB (a source's text is one string
+    /// for the whole build).
+    /// </remarks>
+    public static string Sha256(string text) => Hashes.GetValue(text, HashOf);
+
+    private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<string, string> Hashes = new();
+
+    private static string HashOf(string text) =>
         Convert.ToHexString(SHA256.HashData(Encoding.UTF8.GetBytes(text))).ToLowerInvariant();
 
     public static readonly IReadOnlyList<string> Caution = new[]

@@ -93,11 +93,17 @@ public static class SheetsHtml
         html.Append("<section class=\"point\">\n<h2>").Append(E(point.Tag));
         if (point.Description.Length > 0) html.Append("<span class=\"desc\">").Append(E(point.Description)).Append("</span>");
         html.Append("</h2>\n");
-        html.Append("<p class=\"meta\">")
-            .Append(E($"Card {point.Card.Name} at {point.Address} · signal {SheetsReport.SignalText(point)} · range {SheetsReport.RangeText(point)} · {SheetsReport.ExtractionText(point)}"))
-            .Append("<br>")
-            .Append(E($"{SheetsReport.HealthText(point)} · on fault {SheetsReport.OnFaultText(point)} · tolerance {SheetsReport.ToleranceText(sheet)} · volts {SheetsReport.VoltsWhere(point)}"))
-            .Append("</p>\n");
+        // Encoded piece by piece (the same as encoding the whole line: every piece meets plain
+        // ASCII at its ends), without the line as a string and its encoded copy.
+        AppendEncoded(html.Append("<p class=\"meta\">Card "), point.Card.Name).Append(" at ");
+        AppendEncoded(html, point.Address).Append(Dot).Append("signal ");
+        AppendEncoded(html, SheetsReport.SignalText(point)).Append(Dot).Append("range ");
+        AppendEncoded(html, SheetsReport.RangeText(point)).Append(Dot);
+        AppendEncoded(html, SheetsReport.ExtractionText(point)).Append("<br>");
+        AppendEncoded(html, SheetsReport.HealthText(point)).Append(Dot).Append("on fault ");
+        AppendEncoded(html, SheetsReport.OnFaultText(point)).Append(Dot).Append("tolerance ");
+        AppendEncoded(html, SheetsReport.ToleranceText(sheet)).Append(Dot).Append("volts ");
+        AppendEncoded(html, SheetsReport.VoltsWhere(point)).Append("</p>\n");
 
         // Five-point test.
         html.Append("<table class=\"steps\">\n<caption>Five-point test</caption>\n")
@@ -105,12 +111,18 @@ public static class SheetsHtml
             .Append("<tr><th>Signal %</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Expected ").Append(unit)
             .Append("</th><th>± ").Append(unit).Append("</th><th>Found raw</th><th>Found value</th><th>Left value</th></tr>\n");
         foreach (var step in sheet.Steps)
-            html.Append("<tr>")
-                .Append(N(FieldText.Percent(step.Percent))).Append(N(FieldText.Ma(step.Ma))).Append(N(Volts(step.Volts)))
-                .Append(N(FieldText.Raw(step.Raw))).Append(N(FieldText.Value(step.Value))).Append(N(FieldText.Value(step.Tolerance)))
-                .Append(Blank(3)).Append("</tr>\n");
+        {
+            html.Append("<tr>");
+            FieldText.AppendPercent(Cell(html), step.Percent).Append(EndCell);
+            FieldText.AppendMa(Cell(html), step.Ma).Append(EndCell);
+            AppendVolts(Cell(html), step.Volts).Append(EndCell);
+            FieldText.AppendRaw(Cell(html), step.Raw).Append(EndCell);
+            FieldText.AppendValue(Cell(html), step.Value).Append(EndCell);
+            FieldText.AppendValue(Cell(html), step.Tolerance).Append(EndCell);
+            html.Append(Blank(3)).Append("</tr>\n");
+        }
         html.Append("</table>\n");
-        if (point.SquareRoot) html.Append("<p class=\"note\">").Append(E("Square root: " + SheetsReport.SqrtStepNote + ".")).Append("</p>\n");
+        if (point.SquareRoot) html.Append(SqrtNote);
 
         // Status band tests.
         if (sheet.FaultTests.Length > 0 || sheet.Untestable.Length > 0)
@@ -120,11 +132,16 @@ public static class SheetsHtml
                 .Append("<tr><th>Must show</th><th>Inject mA</th><th>Volts</th><th>Raw</th><th>Value shown ").Append(unit).Append("</th><th>Found status</th><th>Found value</th><th>Left status</th></tr>\n");
             foreach (var (status, test, untestable) in sheet.Bands)
             {
-                html.Append("<tr><td>").Append(status.ToString()).Append("</td>");
+                html.Append("<tr><td>").Append(SheetsReport.StatusText(status)).Append("</td>");
                 if (test is not null)
-                    html.Append(N(FieldText.Ma(test.Ma))).Append(N(Volts(test.Volts))).Append(N(FieldText.Raw(test.Raw)))
-                        .Append(test.HoldsLastGood ? $"<td>{E(SheetsReport.ShowsText(test))}</td>" : N(SheetsReport.ShowsText(test)))
-                        .Append(Blank(3));
+                {
+                    FieldText.AppendMa(Cell(html), test.Ma).Append(EndCell);
+                    AppendVolts(Cell(html), test.Volts).Append(EndCell);
+                    FieldText.AppendRaw(Cell(html), test.Raw).Append(EndCell);
+                    if (test.HoldsLastGood) AppendEncoded(html.Append("<td>"), SheetsReport.ShowsText(test)).Append("</td>");
+                    else N(html, SheetsReport.ShowsText(test));
+                    html.Append(Blank(3));
+                }
                 else
                     html.Append("<td colspan=\"7\">").Append(E("not testable: " + untestable!.Reason)).Append("</td>");
                 html.Append("</tr>\n");
@@ -141,12 +158,19 @@ public static class SheetsHtml
                 .Append(unit).Append("</th><th>Reset mA</th><th>Reset raw</th><th>Trips when mA</th><th>Delay on / off s</th>")
                 .Append("<th>Found trip mA</th><th>Found reset mA</th><th>Left trip mA</th><th>Left reset mA</th></tr>\n");
             foreach (var trip in sheet.Trips)
-                html.Append("<tr><td>").Append(trip.Alarm.Kind.ToString()).Append("</td>")
-                    .Append(N(FieldText.Value(trip.Setpoint))).Append(N(FieldText.Ma(trip.TripMa))).Append(N(FieldText.Raw(trip.TripRaw)))
-                    .Append(N(FieldText.Value(trip.ResetValue))).Append(N(FieldText.Ma(trip.ResetMa))).Append(N(FieldText.Raw(trip.ResetRaw)))
-                    .Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>")
-                    .Append(N($"{FieldText.Percent(trip.Alarm.OnDelaySeconds)} / {FieldText.Percent(trip.Alarm.OffDelaySeconds)}"))
-                    .Append(Blank(4)).Append("</tr>\n");
+            {
+                html.Append("<tr><td>").Append(SheetsReport.AlarmText(trip.Alarm.Kind)).Append("</td>");
+                FieldText.AppendValue(Cell(html), trip.Setpoint).Append(EndCell);
+                FieldText.AppendMa(Cell(html), trip.TripMa).Append(EndCell);
+                FieldText.AppendRaw(Cell(html), trip.TripRaw).Append(EndCell);
+                FieldText.AppendValue(Cell(html), trip.ResetValue).Append(EndCell);
+                FieldText.AppendMa(Cell(html), trip.ResetMa).Append(EndCell);
+                FieldText.AppendRaw(Cell(html), trip.ResetRaw).Append(EndCell);
+                html.Append("<td>").Append(trip.CurrentRisesToTrip ? "rises" : "falls").Append("</td>");
+                FieldText.AppendPercent(Cell(html), trip.Alarm.OnDelaySeconds).Append(" / ");
+                FieldText.AppendPercent(html, trip.Alarm.OffDelaySeconds).Append(EndCell);
+                html.Append(Blank(4)).Append("</tr>\n");
+            }
             html.Append("</table>\n");
         }
 
@@ -171,9 +195,32 @@ public static class SheetsHtml
     private static string Cols(params int[] percents) =>
         "<colgroup>" + string.Concat(percents.Select(p => $"<col style=\"width:{p.ToString(System.Globalization.CultureInfo.InvariantCulture)}%\">")) + "</colgroup>\n";
 
-    private static string Volts(double? volts) => volts is { } v ? FieldText.Volts(v) : "-";
+    private static StringBuilder AppendVolts(StringBuilder html, double? volts) =>
+        volts is { } v ? FieldText.AppendVolts(html, v) : html.Append('-');
 
-    private static string N(string text) => $"<td class=\"n\">{E(text)}</td>";
+    private static readonly string SqrtNote = "<p class=\"note\">" + E("Square root: " + SheetsReport.SqrtStepNote + ".") + "</p>\n";
+
+    // A number cell; numbers (digits, '.', '-') need no encoding and go in as FieldText appends them.
+    private static StringBuilder Cell(StringBuilder html) => html.Append("<td class=\"n\">");
+
+    private const string EndCell = "</td>";
+
+    /// <summary>The separator of the meta lines, " · ", encoded.</summary>
+    private static readonly string Dot = E(" · ");
+
+    /// <summary>A number cell of other text.</summary>
+    private static void N(StringBuilder html, string text) => AppendEncoded(Cell(html), text).Append(EndCell);
+
+    /// <summary>
+    /// Appends <see cref="E"/> of the text; plain ASCII without markup characters, as every
+    /// number is, is appended as it is, without a scan and a copy by the encoder.
+    /// </summary>
+    private static StringBuilder AppendEncoded(StringBuilder html, string text)
+    {
+        foreach (var c in text)
+            if (c is < ' ' or > '~' or '<' or '>' or '&' or '"' or '\'') return html.Append(E(text));
+        return html.Append(text);
+    }
 
     private static string Blank(int count) => Blanks[count];
 

@@ -1,7 +1,5 @@
 using System.Globalization;
 using System.Text;
-using CsvHelper;
-using CsvHelper.Configuration;
 using Newtonsoft.Json;
 using Newtonsoft.Json.Linq;
 using ScaleGen.Engine;
@@ -108,10 +106,10 @@ public static class SheetsReport
         return document;
     }
 
-    private static void WritePoint(JsonWriter w, PointSheet sheet)
+    private static void WritePoint(JsonText w, PointSheet sheet)
     {
         var point = sheet.Point;
-        w.WriteStartObject();
+        w.StartObject();
         w.Field("point", point.Tag);
         w.Field("description", point.Description);
         w.Field("card", point.Card.Name);
@@ -123,50 +121,50 @@ public static class SheetsReport
         w.NumberField("signal_high_ma", point.SignalHighMa);
         w.Field("sqrt", point.SquareRoot);
         w.NumberField("tolerance_percent", point.TolerancePercent);
-        w.WritePropertyName("steps");
-        w.WriteStartArray();
+        w.Name("steps");
+        w.StartArray();
         foreach (var s in sheet.Steps)
         {
-            w.WriteStartObject();
+            w.StartObject();
             w.NumberField("percent", s.Percent);
             w.NumberField("ma", s.Ma);
             w.NumberField("volts", s.Volts);
             w.Field("raw", s.Raw);
             w.NumberField("value", s.Value);
             w.NumberField("tolerance", s.Tolerance);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("fault_tests");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("fault_tests");
+        w.StartArray();
         foreach (var f in sheet.FaultTests)
         {
-            w.WriteStartObject();
-            w.Field("status", f.Status.ToString());
+            w.StartObject();
+            w.Field("status", StatusText(f.Status));
             w.NumberField("ma", f.Ma);
             w.NumberField("volts", f.Volts);
             w.Field("raw", f.Raw);
             w.NumberField("value", f.Value);
             w.Field("holds_last_good", f.HoldsLastGood);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("untestable");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("untestable");
+        w.StartArray();
         foreach (var u in sheet.Untestable)
         {
-            w.WriteStartObject();
-            w.Field("status", u.Status.ToString());
+            w.StartObject();
+            w.Field("status", StatusText(u.Status));
             w.Field("reason", u.Reason);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WritePropertyName("trips");
-        w.WriteStartArray();
+        w.EndArray();
+        w.Name("trips");
+        w.StartArray();
         foreach (var t in sheet.Trips)
         {
-            w.WriteStartObject();
-            w.Field("alarm", t.Alarm.Kind.ToString());
+            w.StartObject();
+            w.Field("alarm", AlarmText(t.Alarm.Kind));
             w.NumberField("setpoint", t.Setpoint);
             w.NumberField("trip_ma", t.TripMa);
             w.NumberField("reset_ma", t.ResetMa);
@@ -178,10 +176,10 @@ public static class SheetsReport
             w.Field("current_rises_to_trip", t.CurrentRisesToTrip);
             w.NumberField("on_delay_s", t.Alarm.OnDelaySeconds);
             w.NumberField("off_delay_s", t.Alarm.OffDelaySeconds);
-            w.WriteEndObject();
+            w.EndObject();
         }
-        w.WriteEndArray();
-        w.WriteEndObject();
+        w.EndArray();
+        w.EndObject();
     }
 
     // ---- CSV ----------------------------------------------------------------------------
@@ -203,54 +201,100 @@ public static class SheetsReport
     /// <summary>The same CSV, streamed.</summary>
     public static void Csv(TextWriter output, IReadOnlyList<PointSheet> sheets, IEnumerable<string> commentLines)
     {
-        var configuration = new CsvConfiguration(CultureInfo.InvariantCulture) { NewLine = "\n" };
-        using (var csv = new CsvWriter(output, configuration, leaveOpen: true))
+        var text = new StringBuilder();
+        foreach (var line in commentLines) CsvText.AppendComment(text, " " + line);
+        for (var i = 0; i < CsvHeader.Length; i++)
+            CsvText.AppendField(i == 0 ? text : text.Append(','), CsvHeader[i]);
+        text.Append('\n');
+        foreach (var sheet in sheets)
         {
-            foreach (var line in commentLines)
-            {
-                csv.WriteComment(" " + line);
-                csv.NextRecord();
-            }
-            foreach (var field in CsvHeader) csv.WriteField(field);
-            csv.NextRecord();
-            foreach (var sheet in sheets) WriteCsvPoint(csv, sheet);
+            WriteCsvPoint(text, sheet);
+            TextChunks.Spill(text, output);
         }
+        TextChunks.Spill(text, output, all: true);
     }
 
-    private static void WriteCsvPoint(CsvWriter csv, PointSheet sheet)
+    private static void WriteCsvPoint(StringBuilder text, PointSheet sheet)
     {
+        // Appended field by field rather than as a row of strings: a check sheet of 50,000
+        // points has ten million fields. Free text goes through CsvText's quoting; numbers
+        // (digits, '.', '-') and the fixed words never need quotes and go in as they are.
         var point = sheet.Point;
-        void Row(string test, string percent, string ma, string volts, string raw, string expected, string tolerance, string status, string notes)
-        {
-            foreach (var field in new[] { point.Tag, point.Description, point.Address, test, percent, ma, volts, raw, expected, point.Unit, tolerance, status, "", "", notes })
-                csv.WriteField(field);
-            csv.NextRecord();
-        }
-        static string V(double? volts) => volts is { } v ? FieldText.Volts(v) : "";
+        var start = CsvText.Field(point.Tag) + "," + CsvText.Field(point.Description) + "," + CsvText.Field(point.Address) + ",";
+        var unit = CsvText.Field(point.Unit);
 
+        // point, description, address, test, percent, ma, volts, raw, expected_value, unit,
+        // tolerance, expected_status, as_found, as_left, notes
+        var stepNote = point.SquareRoot ? SqrtStepNote : "";
         foreach (var step in sheet.Steps)
-            Row("step", FieldText.Percent(step.Percent), FieldText.Ma(step.Ma), V(step.Volts), FieldText.Raw(step.Raw),
-                FieldText.Value(step.Value), FieldText.Value(step.Tolerance), PointStatus.OK.ToString(),
-                point.SquareRoot ? SqrtStepNote : "");
+        {
+            text.Append(start).Append("step,");
+            FieldText.AppendPercent(text, step.Percent).Append(',');
+            FieldText.AppendMa(text, step.Ma).Append(',');
+            AppendCsvVolts(text, step.Volts).Append(',');
+            FieldText.AppendRaw(text, step.Raw).Append(',');
+            FieldText.AppendValue(text, step.Value).Append(',').Append(unit).Append(',');
+            FieldText.AppendValue(text, step.Tolerance).Append(',').Append(OkText).Append(",,,");
+            CsvText.AppendField(text, stepNote).Append('\n');
+        }
         foreach (var (status, test, untestable) in sheet.Bands)
         {
+            text.Append(start).Append("band,,");
             if (test is not null)
-                Row("band", "", FieldText.Ma(test.Ma), V(test.Volts), FieldText.Raw(test.Raw),
-                    test.HoldsLastGood ? "" : FieldText.Value(test.Value ?? 0), "", status.ToString(),
-                    test.HoldsLastGood ? "value holds the last good value" : "");
+            {
+                FieldText.AppendMa(text, test.Ma).Append(',');
+                AppendCsvVolts(text, test.Volts).Append(',');
+                FieldText.AppendRaw(text, test.Raw).Append(',');
+                if (!test.HoldsLastGood) FieldText.AppendValue(text, test.Value ?? 0);
+                text.Append(',').Append(unit).Append(",,").Append(StatusText(status)).Append(",,,");
+                CsvText.AppendField(text, test.HoldsLastGood ? "value holds the last good value" : "");
+            }
             else
-                Row("band", "", "", "", "", "", "", status.ToString(), "not testable: " + untestable!.Reason);
+            {
+                text.Append(",,,,").Append(unit).Append(",,").Append(StatusText(status)).Append(",,,");
+                CsvText.AppendField(text, "not testable: " + untestable!.Reason);
+            }
+            text.Append('\n');
         }
         foreach (var trip in sheet.Trips)
         {
-            var kind = trip.Alarm.Kind.ToString();
-            Row($"{kind} trip", "", FieldText.Ma(trip.TripMa), V(trip.TripVolts), FieldText.Raw(trip.TripRaw),
-                FieldText.Value(trip.Setpoint), "", $"{kind} active", TripHowText(trip));
-            Row($"{kind} reset", "", FieldText.Ma(trip.ResetMa), V(trip.ResetVolts), FieldText.Raw(trip.ResetRaw),
-                FieldText.Value(trip.ResetValue), "", $"{kind} clear", "");
+            var words = AlarmWords[(int)trip.Alarm.Kind];
+            text.Append(start).Append(words.Trip).Append(",,");
+            FieldText.AppendMa(text, trip.TripMa).Append(',');
+            AppendCsvVolts(text, trip.TripVolts).Append(',');
+            FieldText.AppendRaw(text, trip.TripRaw).Append(',');
+            FieldText.AppendValue(text, trip.Setpoint).Append(',').Append(unit).Append(",,").Append(words.Active).Append(",,,");
+            CsvText.AppendField(text, TripHowText(trip)).Append('\n');
+
+            text.Append(start).Append(words.Reset).Append(",,");
+            FieldText.AppendMa(text, trip.ResetMa).Append(',');
+            AppendCsvVolts(text, trip.ResetVolts).Append(',');
+            FieldText.AppendRaw(text, trip.ResetRaw).Append(',');
+            FieldText.AppendValue(text, trip.ResetValue).Append(',').Append(unit).Append(",,").Append(words.Clear).Append(",,,\n");
         }
-        Row("sign-off", "", "", "", "", "", "", "", SignOffText);
+        text.Append(start).Append("sign-off,,,,,,").Append(unit).Append(",,,,,");
+        CsvText.AppendField(text, SignOffText).Append('\n');
     }
+
+    /// <summary>Volts, or nothing where the card declares no input resistance.</summary>
+    private static StringBuilder AppendCsvVolts(StringBuilder text, double? volts) =>
+        volts is { } v ? FieldText.AppendVolts(text, v) : text;
+
+    private static readonly string OkText = PointStatus.OK.ToString();
+
+    // Enum names made once: Enum.ToString costs a lookup and a string per call, and every
+    // format writes several per point.
+
+    /// <summary>A status by its name (OK, UNDER, ...).</summary>
+    public static string StatusText(PointStatus status) => StatusNames[(int)status];
+
+    /// <summary>An alarm kind by its name (HH, H, L, LL).</summary>
+    public static string AlarmText(AlarmKind kind) => AlarmWords[(int)kind].Name;
+
+    private static readonly string[] StatusNames = Enum.GetValues<PointStatus>().Select(s => s.ToString()).ToArray();
+
+    private static readonly (string Name, string Trip, string Reset, string Active, string Clear)[] AlarmWords =
+        Enum.GetValues<AlarmKind>().Select(k => (k.ToString(), $"{k} trip", $"{k} reset", $"{k} active", $"{k} clear")).ToArray();
 
     // ---- text ---------------------------------------------------------------------------
 

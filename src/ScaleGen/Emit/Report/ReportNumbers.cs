@@ -37,7 +37,6 @@ internal sealed class ReportNumbers
     public const int FixedLength = 32;
 
     private static readonly double[] Scales = { 1, 10, 100, 1000, 10000 };
-    private static readonly long[] Units = { 1, 10, 100, 1000, 10000 };
 
     /// <summary>
     /// Writes <see cref="DisplayNumbers.Fixed"/>(<paramref name="value"/>, <paramref name="decimals"/>)
@@ -58,35 +57,14 @@ internal sealed class ReportNumbers
             var above = scaled - floor;
             if (Math.Abs(above - 0.5) > 1e-6 && destination.Length >= FixedLength)
             {
-                written = WriteUnits(destination, (long)floor + (above > 0.5 ? 1 : 0), decimals);
+                // Zero gets no sign: "-0.0" says nothing a reader can use.
+                written = DecimalText.WriteTo(destination, (long)floor + (above > 0.5 ? 1 : 0), decimals, trimZeros: false);
                 return true;
             }
         }
         var exact = DisplayNumbers.Fixed(value, decimals);
         written = exact.Length;
         return exact.AsSpan().TryCopyTo(destination);
-    }
-
-    /// <summary>A count of 10^-decimals as fixed text; zero has no sign ("-0.0" says nothing a reader can use).</summary>
-    private static int WriteUnits(Span<char> destination, long units, int decimals)
-    {
-        var at = 0;
-        if (units < 0)
-        {
-            destination[at++] = '-';
-            units = -units;
-        }
-        var whole = Math.DivRem(units, Units[decimals], out var part);
-        whole.TryFormat(destination[at..], out var written, default, CultureInfo.InvariantCulture);
-        at += written;
-        if (decimals == 0) return at;
-        destination[at++] = '.';
-        for (var i = decimals - 1; i >= 0; i--)
-        {
-            destination[at + i] = (char)('0' + (int)(part % 10));
-            part /= 10;
-        }
-        return at + decimals;
     }
 }
 

@@ -20,4 +20,8 @@ public static class StFile
 
     /// <summary>A one-line comment; the text is sanitised.</summary>
     public static string Comment(string text) => "(* " + StSanitizer.Comment(text) + " *)";
+
+    /// <summary>The same comment, appended.</summary>
+    public static StringBuilder AppendComment(StringBuilder builder, string text) =>
+        builder.Append("(* ").Append(StSanitizer.Comment(text)).Append(" *)");
 }

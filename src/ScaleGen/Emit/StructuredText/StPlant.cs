@@ -1,3 +1,5 @@
+using System.Collections.Immutable;
+using System.Globalization;
 using System.Text;
 using ScaleGen.Engine;
 using ScaleGen.Model;
@@ -33,17 +35,23 @@ public static class StPlant
     }
 
     /// <summary>The program: per point a raw input, a parameter record constant and an instance, each in its own section; the calls as the body.</summary>
+    /// <remarks>
+    /// The sections are made as they are read (a <see cref="GroupedList{T}"/>), a point at a
+    /// time: 50,000 points' declarations held as records would take most of a gigabyte, and
+    /// keeping them alive costs the garbage collector more than making them.
+    /// </remarks>
     public static StPou Program(Plant plant)
     {
-        var points = ForPlant(plant).Select(n => (Names: n, Parameters: StPointParameters.Of(n.Point, plant.CycleSeconds))).ToList();
+        var names = ForPlant(plant);
         var body = new StringBuilder();
         body.Append(StWriter.Banner).Append('\n');
         body.Append(StFile.Comment("Calls, in point order, once per cycle")).Append('\n');
-        foreach (var (names, parameters) in points)
-            body.Append(Call(names, parameters)).Append('\n');
+        // A call needs only the card's fault codes, not all of the point's parameters.
+        foreach (var name in names)
+            body.Append(Call(name, StPointParameters.FaultCodesInside(name.Point.Card))).Append('\n');
         return new StPou(StPouKind.Program, StNames.Program,
-            // Three sections a point, made as they are written: held whole they would be hundreds of MB at 50,000 points.
-            new GroupedList<StVarSection>(points.Count, 3, i => Sections(points[i].Names, points[i].Parameters, plant.CycleSeconds).ToArray()),
+            new GroupedList<StVarSection>(names.Length, SectionsPerPoint,
+                i => Sections(names[i], StPointParameters.Of(names[i].Point, plant.CycleSeconds), plant.CycleSeconds)),
             body.ToString(),
             [
                 "Plant: " + (plant.Title ?? "(no title)"),
@@ -53,22 +61,48 @@ public static class StPlant
             ]);
     }
 
+    private const int SectionsPerPoint = 3;
+
+    // What every point's declarations share, made once: the records are immutable, and a
+    // large plant would otherwise make the same objects tens of thousands of times.
+    private static readonly StDerivedType PointParamsTypeRef = new(PointParamsType);
+    private static readonly StDerivedType PointBlockTypeRef = new(PointBlock);
+    private static readonly StElementaryType[] RawInputTypes =
+        Enum.GetValues<RawType>().Select(type => new StElementaryType(type.ToString())).ToArray();
+    private static readonly StMemberValue[] DisabledAlarms = Enum.GetValues<AlarmKind>()
+        .Select(kind => new StMemberValue(AlarmParamsField(kind), new StStructValue([new StMemberValue("Enabled", new StSimpleValue(Bool(false)))])))
+        .ToArray();
+    private static readonly StSimpleValue TrueValue = new(Bool(true)), FalseValue = new(Bool(false)), NoDelay = new(Time(0)), RealZero = new(Real(0));
+
+    /// <summary>A literal as a value; the ones most points share are one object each.</summary>
+    private static StSimpleValue SimpleValue(string literal) => literal switch
+    {
+        "TRUE" => TrueValue,
+        "FALSE" => FalseValue,
+        "T#0s" => NoDelay,
+        "0.0" => RealZero,
+        _ => new StSimpleValue(literal),
+    };
+
+    /// <summary>The members of a point's parameter record, alarms included (its list is made this large at once).</summary>
+    private const int MembersPerPoint = 27;
+
     /// <summary>One point's declarations: its raw input, its parameter record constant, its instance.</summary>
-    private static IEnumerable<StVarSection> Sections(StPointNames name, StPointParameters p, double cycle)
+    private static StVarSection[] Sections(StPointNames name, StPointParameters p, double cycle)
     {
         var point = name.Point;
-        var members = new List<StMemberValue>();
+        var members = new List<StMemberValue>(MembersPerPoint);
         var notes = new List<string>();
         void Note(string note) => notes.Add(note);
         void Field(string member, string literal, string? after = null)
         {
-            members.Add(new StMemberValue(member, new StSimpleValue(literal), notes.ToArray(), after));
+            members.Add(new StMemberValue(member, SimpleValue(literal), notes.ToArray(), after));
             notes.Clear();
         }
-        void RangeFields(string prefix, StRawRange range)
+        void RangeFields(string minMember, string maxMember, StRawRange range)
         {
-            Field(prefix + "Min", Integer(range.Min));
-            Field(prefix + "Max", Integer(range.Max));
+            Field(minMember, Integer(range.Min));
+            Field(maxMember, Integer(range.Max));
         }
 
         Field("Tag", StSanitizer.StringLiteral(point.Tag, TagLength));
@@ -79,14 +113,14 @@ public static class StPlant
         Field("LimitHigh", Integer(p.LimitHigh));
         if (!p.FaultCodesInsideLimits.IsEmpty)
             Note("fault codes inside the limits come in as CodeFault: " + string.Join(", ", p.FaultCodesInsideLimits.Select(Integer)));
-        if (point.Health.FaultLowMa is { } faultLow) Note($"FAULT_LOW: I <= {Readable(faultLow)} mA");
-        RangeFields("FaultLow", p.FaultLow);
-        if (point.Health.FaultHighMa is { } faultHigh) Note($"FAULT_HIGH: I >= {Readable(faultHigh)} mA");
-        RangeFields("FaultHigh", p.FaultHigh);
-        Note($"UNDER: I < {Readable(point.SignalLowMa)} mA");
-        RangeFields("Under", p.Under);
-        Note($"OVER: I > {Readable(point.SignalHighMa)} mA");
-        RangeFields("Over", p.Over);
+        if (point.Health.FaultLowMa is { } faultLow) Note(string.Create(Invariant, $"FAULT_LOW: I <= {NoteNumber(faultLow)} mA"));
+        RangeFields("FaultLowMin", "FaultLowMax", p.FaultLow);
+        if (point.Health.FaultHighMa is { } faultHigh) Note(string.Create(Invariant, $"FAULT_HIGH: I >= {NoteNumber(faultHigh)} mA"));
+        RangeFields("FaultHighMin", "FaultHighMax", p.FaultHigh);
+        Note(string.Create(Invariant, $"UNDER: I < {NoteNumber(point.SignalLowMa)} mA"));
+        RangeFields("UnderMin", "UnderMax", p.Under);
+        Note(string.Create(Invariant, $"OVER: I > {NoteNumber(point.SignalHighMa)} mA"));
+        RangeFields("OverMin", "OverMax", p.Over);
 
         Note(point.SquareRoot
             ? "fraction = raw * Gain + Offset; Value = SQRT(fraction) * Span + Lrv, or Lrv in the cutoff range"
@@ -94,7 +128,7 @@ public static class StPlant
         Field("SquareRoot", Bool(point.SquareRoot));
         Field("Gain", Real(p.Coefficients.Gain));
         Field("Offset", Real(p.Coefficients.Offset));
-        RangeFields("CutoffRaw", p.Cutoff);
+        RangeFields("CutoffRawMin", "CutoffRawMax", p.Cutoff);
         Field("Lrv", Real(point.Lrv));
         Field("Span", Real(point.Span));
 
@@ -102,7 +136,7 @@ public static class StPlant
         Field("HoldLastGood", Bool(p.HoldLastGood));
         Field("FaultValue", Real(p.FaultValue));
 
-        Note(p.FilterOn ? $"filter {Readable(point.FilterSeconds)} s at a {CycleText(cycle)} cycle" : "no filter: alarms judged on raw ranges");
+        Note(p.FilterOn ? string.Create(Invariant, $"filter {NoteNumber(point.FilterSeconds)} s at a {CycleText(cycle)} cycle") : "no filter: alarms judged on raw ranges");
         Field("FilterOn", Bool(p.FilterOn));
         Field("Alpha", Real(p.Alpha));
 
@@ -111,10 +145,10 @@ public static class StPlant
             var field = AlarmParamsField(alarm.Kind);
             if (alarm.Alarm is not { } trip)
             {
-                members.Add(new StMemberValue(field, new StStructValue([new StMemberValue("Enabled", new StSimpleValue(Bool(false)))])));
+                members.Add(DisabledAlarms[(int)alarm.Kind]);
                 continue;
             }
-            StMemberValue Simple(string member, string literal, string? after = null) => new(member, new StSimpleValue(literal), [], after);
+            StMemberValue Simple(string member, string literal, string? after = null) => new(member, SimpleValue(literal), [], after);
             StStructValue limit = new(
             [
                 Simple("Enabled", Bool(true)),
@@ -133,18 +167,23 @@ public static class StPlant
             notes.Clear();
         }
 
-        yield return new StVarSection(StVarKind.Input,
-            [new StVariable(name.RawInput, new StElementaryType(point.Card.RawType.ToString()), Comment: $"channel {point.Address}, card {point.Card.Name}")])
-        {
-            Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
-        };
-        yield return new StVarSection(StVarKind.Constant,
-            [new StVariable(name.Parameters, new StDerivedType(PointParamsType), new StStructValue(members))]);
-        yield return new StVarSection(StVarKind.Local, [new StVariable(name.Instance, new StDerivedType(PointBlock))]);
+        return
+        [
+            new StVarSection(StVarKind.Input,
+                [new StVariable(name.RawInput, RawInputTypes[(int)point.Card.RawType], Comment: $"channel {point.Address}, card {point.Card.Name}")])
+            {
+                Notes = [$"{point.Tag}: {point.Description}", Summary(point)],
+            },
+            new StVarSection(StVarKind.Constant,
+                [new StVariable(name.Parameters, PointParamsTypeRef, new StStructValue(members))]),
+            new StVarSection(StVarKind.Local, [new StVariable(name.Instance, PointBlockTypeRef)]),
+        ];
     }
 
     /// <summary>The call of one point's instance; the raw input converted to DINT, fault codes inside the limits as CodeFault.</summary>
-    public static string Call(StPointNames name, StPointParameters p)
+    public static string Call(StPointNames name, StPointParameters p) => Call(name, p.FaultCodesInsideLimits);
+
+    private static string Call(StPointNames name, ImmutableArray<long> faultCodesInsideLimits)
     {
         var raw = name.Point.Card.RawType switch
         {
@@ -152,49 +191,72 @@ public static class StPlant
             RawType.UINT => $"UINT_TO_DINT({name.RawInput})",
             _ => name.RawInput,
         };
-        var codeFault = p.FaultCodesInsideLimits.IsEmpty
+        var codeFault = faultCodesInsideLimits.IsEmpty
             ? ""
-            : $", {CodeFaultInput} := " + string.Join(" OR ", p.FaultCodesInsideLimits.Select(c => $"({name.RawInput} = {Integer(c)})"));
+            : $", {CodeFaultInput} := " + string.Join(" OR ", faultCodesInsideLimits.Select(c => $"({name.RawInput} = {Integer(c)})"));
         return $"{name.Instance}({RawInput} := {raw}{codeFault}, {ParamsInput} := {name.Parameters});";
     }
 
+    // The comments below are interpolated with NoteNumber (formatted in place, invariant)
+    // straight into their one string: plant.st has a dozen of them per point.
+
+    /// <summary>
+    /// A cleared builder for a comment made of several parts, one per thread (plant.st and
+    /// plant.xml may be written at the same time); the comment is copied out before the next.
+    /// </summary>
+    private static StringBuilder NoteBuilder() => (t_note ??= new StringBuilder(256)).Clear();
+
+    [ThreadStatic]
+    private static StringBuilder? t_note;
+
+    private static readonly CultureInfo Invariant = CultureInfo.InvariantCulture;
+
     private static string Summary(Point point)
     {
-        var parts = new List<string>
+        var text = NoteBuilder();
+        text.Append(Invariant, $"signal {NoteNumber(point.SignalLowMa)} .. {NoteNumber(point.SignalHighMa)} mA");
+        if (point.ShuntOhms is { } shunt && point.Card.IsVoltage) text.Append(Invariant, $" through a {NoteNumber(shunt)} ohm shunt");
+        text.Append(Invariant, $"; range {NoteNumber(point.Lrv, 6)} .. {NoteNumber(point.Urv, 6)} {point.Unit}");
+        if (point.IsReverse) text.Append(" (reverse acting)");
+        if (point.SquareRoot) text.Append(Invariant, $"; square root, cutoff {NoteNumber(point.CutoffPercent)} %");
+        else text.Append("; linear");
+        switch (point.Health.Kind)
         {
-            $"signal {Readable(point.SignalLowMa)} .. {Readable(point.SignalHighMa)} mA" +
-                (point.ShuntOhms is { } shunt && point.Card.IsVoltage ? $" through a {Readable(shunt)} ohm shunt" : ""),
-            $"range {Readable(point.Lrv, 6)} .. {Readable(point.Urv, 6)} {point.Unit}" + (point.IsReverse ? " (reverse acting)" : ""),
-            point.SquareRoot ? $"square root, cutoff {Readable(point.CutoffPercent)} %" : "linear",
-            point.Health.Kind switch
-            {
-                HealthKind.Ne43 => "health ne43",
-                HealthKind.Custom => "health" + (point.Health.FaultLowMa is { } l ? $" below {Readable(l)} mA" : "") +
-                    (point.Health.FaultHighMa is { } h ? $" above {Readable(h)} mA" : ""),
-                _ => "health none",
-            },
-        };
-        return string.Join("; ", parts);
+            case HealthKind.Ne43:
+                text.Append("; health ne43");
+                break;
+            case HealthKind.Custom:
+                text.Append("; health");
+                if (point.Health.FaultLowMa is { } low) text.Append(Invariant, $" below {NoteNumber(low)} mA");
+                if (point.Health.FaultHighMa is { } high) text.Append(Invariant, $" above {NoteNumber(high)} mA");
+                break;
+            default:
+                text.Append("; health none");
+                break;
+        }
+        return text.ToString();
     }
 
     private static string FaultActionText(Point point) => point.OnFault.Kind switch
     {
-        FaultActionKind.Low => $"low ({Readable(point.ValueMin, 6)} {point.Unit})",
-        FaultActionKind.High => $"high ({Readable(point.ValueMax, 6)} {point.Unit})",
-        FaultActionKind.Value => $"value {Readable(point.OnFault.Value, 6)} {point.Unit}",
-        _ => $"hold (last good value; {Readable(point.Lrv, 6)} {point.Unit} until there is one)",
+        FaultActionKind.Low => string.Create(Invariant, $"low ({NoteNumber(point.ValueMin, 6)} {point.Unit})"),
+        FaultActionKind.High => string.Create(Invariant, $"high ({NoteNumber(point.ValueMax, 6)} {point.Unit})"),
+        FaultActionKind.Value => string.Create(Invariant, $"value {NoteNumber(point.OnFault.Value, 6)} {point.Unit}"),
+        _ => string.Create(Invariant, $"hold (last good value; {NoteNumber(point.Lrv, 6)} {point.Unit} until there is one)"),
     };
 
     private static string AlarmSummary(Point point, AlarmPoint trip)
     {
         var alarm = trip.Alarm;
         var unit = point.Unit;
-        var tripRaw = trip.TripRaw is { } t ? $", raw {Integer(t)}" : "";
-        var resetRaw = trip.ResetRaw is { } r ? $", raw {Integer(r)}" : "";
-        var beyond = alarm.IsHigh ? "below" : "above";
-        return $"{alarm.Kind} {Readable(alarm.Setpoint, 6)} {unit}, deadband {Readable(alarm.Deadband, 6)} {unit}: " +
-            $"on at {Readable(trip.TripMa)} mA{tripRaw}; off {beyond} {Readable(trip.ResetValue, 6)} {unit} " +
-            $"({Readable(trip.ResetMa)} mA{resetRaw}); delay {Readable(alarm.OnDelaySeconds)} s, clear {Readable(alarm.OffDelaySeconds)} s; priority {alarm.Priority}";
+        var text = NoteBuilder();
+        text.Append(Invariant, $"{AlarmParamsField(alarm.Kind)} {NoteNumber(alarm.Setpoint, 6)} {unit}, deadband {NoteNumber(alarm.Deadband, 6)} {unit}: ");
+        text.Append(Invariant, $"on at {NoteNumber(trip.TripMa)} mA");
+        if (trip.TripRaw is { } tripRaw) text.Append(Invariant, $", raw {tripRaw}");
+        text.Append(Invariant, $"; off {(alarm.IsHigh ? "below" : "above")} {NoteNumber(trip.ResetValue, 6)} {unit} ({NoteNumber(trip.ResetMa)} mA");
+        if (trip.ResetRaw is { } resetRaw) text.Append(Invariant, $", raw {resetRaw}");
+        text.Append(Invariant, $"); delay {NoteNumber(alarm.OnDelaySeconds)} s, clear {NoteNumber(alarm.OffDelaySeconds)} s; priority {alarm.Priority}");
+        return text.ToString();
     }
 
     /// <summary>A note after a TIME literal when the declared delay is not a whole number of cycles; else null.</summary>
@@ -204,9 +266,11 @@ public static class StPlant
         var declared = Math.Max(declaredSeconds, 0);
         return Math.Abs(written - declared) <= 1e-9 * Math.Max(1.0, declared)
             ? null
-            : $"declared {Readable(declared, 6)} s, rounded up to {scans} whole cycles";
+            : string.Create(Invariant, $"declared {NoteNumber(declared, 6)} s, rounded up to {scans} whole cycles");
     }
 
     private static string CycleText(double cycleSeconds) =>
-        cycleSeconds < 1 ? $"{Readable(cycleSeconds * 1000, 3)} ms" : $"{Readable(cycleSeconds, 6)} s";
+        cycleSeconds < 1
+            ? string.Create(Invariant, $"{NoteNumber(cycleSeconds * 1000, 3)} ms")
+            : string.Create(Invariant, $"{NoteNumber(cycleSeconds, 6)} s");
 }

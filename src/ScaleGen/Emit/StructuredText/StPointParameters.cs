@@ -1,4 +1,6 @@
 using System.Collections.Immutable;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using ScaleGen.Engine;
 using ScaleGen.Model;
 
@@ -65,29 +67,55 @@ public sealed record StPointParameters(
 
     public StAlarmParameters AlarmOf(AlarmKind kind) => Alarms.First(a => a.Kind == kind);
 
+    /// <summary>
+    /// The card's fault codes that lie inside its limits, in order, each once: the generated
+    /// code tests these one by one (codes outside the limits are card faults through the
+    /// limits already).
+    /// </summary>
+    /// <remarks>Worked out once per card: points share their card, and a plant has tens of thousands of points.</remarks>
+    public static ImmutableArray<long> FaultCodesInside(Card card) =>
+        card.FaultCodes.IsDefaultOrEmpty
+            ? ImmutableArray<long>.Empty
+            : ImmutableCollectionsMarshal.AsImmutableArray(CodesInside.GetValue(card,
+                c => c.FaultCodes.Where(code => code >= c.LimitLow && code <= c.LimitHigh).Distinct().Order().ToArray()));
+
+    private static readonly ConditionalWeakTable<Card, long[]> CodesInside = new();
+
+    // A kind the point has no alarm of: the same entry for every point.
+    private static readonly StAlarmParameters[] Disabled = Enum.GetValues<AlarmKind>()
+        .Select(kind => new StAlarmParameters(kind, null, StRawRange.Empty, StRawRange.Empty, 0, 0)).ToArray();
+
     public static StPointParameters Of(Point point, double cycleSeconds)
     {
         var bands = StatusBands.RawThresholds(point);
         var (low, high) = (bands.LimitLow, bands.LimitHigh);
         StRawRange Range(RawCondition condition) => StRawRange.Of(condition, low, high);
 
+        // Plain loops rather than LINQ: this runs once per point for plant.st and plant.xml.
         var points = AlarmMath.AlarmPoints(point);
-        var alarms = StNames.AlarmKinds.Select(kind =>
+        var alarms = ImmutableArray.CreateBuilder<StAlarmParameters>(StNames.AlarmKinds.Length);
+        foreach (var kind in StNames.AlarmKinds)
         {
-            var alarmPoint = points.FirstOrDefault(a => a.Alarm.Kind == kind);
-            if (alarmPoint is null) return new StAlarmParameters(kind, null, StRawRange.Empty, StRawRange.Empty, 0, 0);
-            var timing = new AlarmStateMachine(alarmPoint.Alarm, cycleSeconds);
-            return new StAlarmParameters(kind, alarmPoint, Range(alarmPoint.TripCondition), Range(alarmPoint.ClearCondition),
-                timing.OnDelayScans, timing.OffDelayScans);
-        }).ToImmutableArray();
+            AlarmPoint? alarmPoint = null;
+            foreach (var candidate in points)
+            {
+                if (candidate.Alarm.Kind != kind) continue;
+                alarmPoint = candidate;
+                break;
+            }
+            alarms.Add(alarmPoint is null
+                ? Disabled[(int)kind]
+                : new StAlarmParameters(kind, alarmPoint, Range(alarmPoint.TripCondition), Range(alarmPoint.ClearCondition),
+                    // The delays in cycles as the engine's alarm state machine counts them.
+                    ScanTiming.DelayScans(alarmPoint.Alarm.OnDelaySeconds, cycleSeconds),
+                    ScanTiming.DelayScans(alarmPoint.Alarm.OffDelaySeconds, cycleSeconds)));
+        }
 
-        var filter = new LagFilter(point.FilterSeconds, cycleSeconds);
         return new StPointParameters(
             point,
             low,
             high,
-            // Codes outside the limits are card faults through the limits already.
-            bands.FaultCodes.Where(c => c >= low && c <= high).Distinct().Order().ToImmutableArray(),
+            FaultCodesInside(point.Card),
             Range(bands.FaultLow),
             Range(bands.FaultHigh),
             Range(bands.Under),
@@ -98,7 +126,7 @@ public sealed record StPointParameters(
             // Hold shows this too until there is a good value.
             FaultValue: FaultActions.Substitute(point, lastGood: null),
             FilterOn: point.FilterSeconds > 0,
-            Alpha: filter.Alpha,
-            alarms);
+            Alpha: LagFilter.AlphaFor(point.FilterSeconds, cycleSeconds),
+            alarms.MoveToImmutable());
     }
 }

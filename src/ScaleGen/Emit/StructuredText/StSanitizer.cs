@@ -61,13 +61,13 @@ public static class StSanitizer
     /// </summary>
     private static bool IsPlain(string text, bool forLiteral)
     {
-        for (var i = 0; i < text.Length; i++)
-        {
-            var c = text[i];
-            if (c is < ' ' or > '~') return false;
-            if (forLiteral ? c is '$' or '\'' : (c == '*' && i > 0 && text[i - 1] == '(') || (c == ')' && i > 0 && text[i - 1] == '*')) return false;
-        }
-        return true;
+        // Whole-span searches, which the runtime vectorises: a plant of 50,000 points has
+        // some 40 MB of comment text to check.
+        var span = text.AsSpan();
+        if (span.IndexOfAnyExceptInRange(' ', '~') >= 0) return false;
+        return forLiteral
+            ? span.IndexOfAny('$', '\'') < 0
+            : span.IndexOf("(*", StringComparison.Ordinal) < 0 && span.IndexOf("*)", StringComparison.Ordinal) < 0;
     }
 
     /// <summary>The characters of a text with every line break, control or format character as a space and lone surrogates as '?'.</summary>

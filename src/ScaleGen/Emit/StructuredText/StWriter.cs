@@ -61,60 +61,98 @@ public static class StWriter
     {
         var text = new StringBuilder(LeadingComment(pou.Comment, layout));
         text.Append(pou.Keyword).Append(' ').Append(pou.Name).Append('\n');
+        // The sections are enumerated (plant.st's are made as they are read); the small lists
+        // inside them are walked by index: an enumerator through the interface is an
+        // allocation, and plant.st walks a few hundred lists per point.
         foreach (var section in pou.Sections)
         {
             if (section.Notes.Count > 0)
             {
                 text.Append('\n');
                 if (layout.GroupBanner) text.Append(Banner).Append('\n');
-                foreach (var note in section.Notes) text.Append(StFile.Comment(note)).Append('\n');
+                for (var i = 0; i < section.Notes.Count; i++) StFile.AppendComment(text, section.Notes[i]).Append('\n');
             }
             text.Append(section.Keyword).Append('\n');
-            foreach (var variable in section.Variables) AppendVariable(text, variable, layout);
+            for (var i = 0; i < section.Variables.Count; i++) AppendVariable(text, section.Variables[i], layout);
             text.Append("END_VAR\n");
             TextChunks.Spill(text, output);
         }
-        text.Append('\n').Append(pou.Body).Append('\n').Append("END_").Append(pou.Keyword).Append('\n');
+        text.Append('\n');
         TextChunks.Spill(text, output, all: true);
+        // A program's body has a line per point: written as it is, not copied into the builder.
+        output.Write(pou.Body);
+        output.Write('\n');
+        output.Write("END_");
+        output.Write(pou.Keyword);
+        output.Write('\n');
     }
 
     /// <summary>An initial value; a structure value with members opens at <paramref name="depth"/> and closes there.</summary>
-    public static string Value(StValue value, int depth = 1) => value switch
+    public static string Value(StValue value, int depth = 1)
     {
-        StSimpleValue simple => simple.Literal,
-        StStructValue { Members: [{ Value: StSimpleValue, Notes.Count: 0, Note: null } only] } => $"({only.Member} := {Value(only.Value)})",
-        StStructValue structure => MultiLine(structure, depth),
-        _ => throw new ArgumentException($"No Structured Text form for {value.GetType().Name}.", nameof(value)),
-    };
+        if (value is StSimpleValue simple) return simple.Literal;
+        var text = new StringBuilder();
+        AppendValue(text, value, depth);
+        return text.ToString();
+    }
 
-    private static string MultiLine(StStructValue structure, int depth)
+    // Declarations are appended straight to the section's builder, without a string per line
+    // or per value: plant.st writes some forty initial values per point.
+
+    private static void AppendValue(StringBuilder text, StValue value, int depth)
     {
-        var text = new StringBuilder("(\n");
-        var inner = Indentation(depth + 1);
+        switch (value)
+        {
+            case StSimpleValue simple:
+                text.Append(simple.Literal);
+                break;
+            case StStructValue { Members: [{ Value: StSimpleValue only, Notes.Count: 0, Note: null } member] }:
+                text.Append('(').Append(member.Member).Append(" := ").Append(only.Literal).Append(')');
+                break;
+            case StStructValue structure:
+                AppendMultiLine(text, structure, depth);
+                break;
+            default:
+                throw new ArgumentException($"No Structured Text form for {value.GetType().Name}.", nameof(value));
+        }
+    }
+
+    private static void AppendMultiLine(StringBuilder text, StStructValue structure, int depth)
+    {
+        text.Append("(\n");
+        var inner = (depth + 1) * Indent.Length;
         for (var i = 0; i < structure.Members.Count; i++)
         {
             var member = structure.Members[i];
-            foreach (var note in member.Notes) text.Append(inner).Append(StFile.Comment(note)).Append('\n');
-            text.Append(inner).Append(member.Member).Append(" := ").Append(Value(member.Value, depth + 1));
-            if (member.Note is { } after) text.Append(' ').Append(StFile.Comment(after));
+            for (var n = 0; n < member.Notes.Count; n++) StFile.AppendComment(text.Append(' ', inner), member.Notes[n]).Append('\n');
+            text.Append(' ', inner).Append(member.Member).Append(" := ");
+            AppendValue(text, member.Value, depth + 1);
+            if (member.Note is { } after) StFile.AppendComment(text.Append(' '), after);
             text.Append(i == structure.Members.Count - 1 ? "\n" : ",\n");
         }
-        return text.Append(Indentation(depth)).Append(')').ToString();
+        text.Append(' ', depth * Indent.Length).Append(')');
     }
 
     private static void AppendVariable(StringBuilder text, StVariable variable, StLayout layout)
     {
-        foreach (var note in variable.Notes) text.Append(Indent).Append(StFile.Comment(note)).Append('\n');
-        var line = new StringBuilder(Indent).Append(variable.Name).Append(" : ").Append(variable.Type.Text);
-        if (variable.Initial is { } initial) line.Append(" := ").Append(Value(initial));
-        line.Append(';');
+        for (var i = 0; i < variable.Notes.Count; i++) StFile.AppendComment(text.Append(Indent), variable.Notes[i]).Append('\n');
+        var lineStart = text.Length;
+        text.Append(Indent).Append(variable.Name).Append(" : ").Append(variable.Type.Text);
+        if (variable.Initial is { } initial) AppendValue(text.Append(" := "), initial, 1);
+        text.Append(';');
         if (variable.Comment is { } comment)
         {
             // Measured on the last line, for a value that spans several.
-            var lastLine = line.Length - (line.ToString().LastIndexOf('\n') + 1);
-            line.Append(' ', Math.Max(1, layout.CommentColumn - lastLine)).Append(StFile.Comment(comment));
+            var lastLine = text.Length - lineStart;
+            for (var i = text.Length - 1; i >= lineStart; i--)
+            {
+                if (text[i] != '\n') continue;
+                lastLine = text.Length - (i + 1);
+                break;
+            }
+            StFile.AppendComment(text.Append(' ', Math.Max(1, layout.CommentColumn - lastLine)), comment);
         }
-        text.Append(line).Append('\n');
+        text.Append('\n');
     }
 
     private static string LeadingComment(IReadOnlyList<string> lines, StLayout layout)
@@ -123,6 +161,4 @@ public static class StWriter
         if (layout.CommentClosesOnOwnLine) return StFile.HeaderComment(lines);
         return "(* " + string.Join("\n   ", lines.Select(StSanitizer.Comment)) + " *)\n";
     }
-
-    private static string Indentation(int depth) => string.Concat(Enumerable.Repeat(Indent, depth));
 }
