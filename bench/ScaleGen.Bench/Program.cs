@@ -3,7 +3,7 @@ using BenchmarkDotNet.Running;
 using ScaleGen.Bench;
 
 // Benchmarks of ScaleGen (see docs/performance.md). Modes:
-//   bench [--sizes 1000,5000,10000,50000] [--runs 5] [--cold 3]   stopwatch medians and a cold build
+//   bench [--sizes 1000,5000,10000,50000] [--runs 5] [--cold 3]   stopwatch medians, and cold builds of every size
 //   micro [BenchmarkDotNet options, e.g. --filter *FrontEnd*]      BenchmarkDotNet, short runs
 //   phases [--points 10000] [--runs 5]                              front-end time and allocations by phase
 //   generate --points N [--seed S] -o DIR                           write an invented site's .scale files
